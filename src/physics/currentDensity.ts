@@ -19,6 +19,7 @@ export function trapezoidCurrentDensity(junction: Junction, biasV: number, tempe
 }
 
 const sharedGrid = createEnergyGrid();
+const sharedPoint = createPreparedTrapezoidPoint(1024);
 const breakpoints = [0, 0];
 const shapeGradient = new Float64Array(2);
 
@@ -59,25 +60,82 @@ export function trapezoidDecayRates(
  *   of order (31/15120)(π c k_BT)⁶ relative; the path is used only where that is below 1e-6, the
  *   barrier is closed within ±10 k_BT of both Fermi levels and the band bottom is far away.
  * - Full path: the energy grid with the Fermi functions in the weights (energyGrid.ts).
- * Pass `grid` to reuse a full-path layout; null builds what the point needs.
  */
 export function trapezoidCurrentDensityWithGradient(
   junction: Junction,
   biasV: number,
   temperatureK: number,
   gradient: Float64Array | null,
-  grid: EnergyGrid | null = null,
 ): number {
-  if (grid !== null) return integrateTrapezoid(junction, biasV, grid, gradient);
+  prepareTrapezoidPoint(sharedPoint, junction, biasV, temperatureK);
+  return preparedTrapezoidCurrentDensity(sharedPoint, junction, biasV, gradient);
+}
+
+/**
+ * The energy layout of one bias point, reusable while the barrier parameters move a little (the
+ * layout depends on them only through the panel widths and the path choice). See
+ * TrapezoidSpectrum for the reuse rule.
+ */
+export interface PreparedTrapezoidPoint {
+  grid: EnergyGrid;
+  /** True: the grid is the T = 0 layout plus the Sommerfeld terms; false: Fermi functions in the weights. */
+  sommerfeld: boolean;
+  thermalEnergyEV: number;
+  /** Decay rate |∂γ/∂ε| at the upper Fermi level when the layout was built, 1/eV. */
+  builtDecayRatePerEV: number;
+  builtTipWorkFunctionEV: number;
+  builtSampleWorkFunctionEV: number;
+}
+
+/** A point with an empty layout (capacity grows as needed). */
+export function createPreparedTrapezoidPoint(capacity = 128): PreparedTrapezoidPoint {
+  return {
+    grid: createEnergyGrid(capacity),
+    sommerfeld: false,
+    thermalEnergyEV: 0,
+    builtDecayRatePerEV: Number.NaN,
+    builtTipWorkFunctionEV: Number.NaN,
+    builtSampleWorkFunctionEV: Number.NaN,
+  };
+}
+
+/** Choose the temperature path for this point and build its energy layout. */
+export function prepareTrapezoidPoint(point: PreparedTrapezoidPoint, junction: Junction, biasV: number, temperatureK: number): void {
   const kT = BOLTZMANN_EV_PER_K * Math.max(temperatureK, 0);
   const rates = trapezoidDecayRates(junction, biasV);
-  if (kT > 0 && !sommerfeldApplies(junction, biasV, kT, rates.decayRatePerEV)) {
-    buildEnergyGrid(sharedGrid, { biasV, temperatureK, fermiEnergyEV: junction.fermiEnergyEV, ...rates });
-    return integrateTrapezoid(junction, biasV, sharedGrid, gradient);
-  }
-  buildEnergyGrid(sharedGrid, { biasV, temperatureK: 0, fermiEnergyEV: junction.fermiEnergyEV, ...rates });
-  const zeroKelvin = integrateTrapezoid(junction, biasV, sharedGrid, gradient);
-  if (kT === 0 || biasV === 0) return zeroKelvin;
+  point.thermalEnergyEV = kT;
+  point.sommerfeld = kT === 0 || sommerfeldApplies(junction, biasV, kT, rates.decayRatePerEV);
+  point.builtDecayRatePerEV = rates.decayRatePerEV;
+  point.builtTipWorkFunctionEV = junction.tipWorkFunctionEV;
+  point.builtSampleWorkFunctionEV = junction.sampleWorkFunctionEV;
+  buildEnergyGrid(point.grid, {
+    biasV,
+    temperatureK: point.sommerfeld ? 0 : temperatureK,
+    fermiEnergyEV: junction.fermiEnergyEV,
+    decayRatePerEV: rates.decayRatePerEV,
+    slowestDecayRatePerEV: rates.slowestDecayRatePerEV,
+    breakpointsEV: rates.breakpointsEV,
+  });
+}
+
+/**
+ * Whether a prepared layout still suits this junction: same temperature path, decay rate within
+ * 15 %, and work functions within 0.05 eV (kinks of D move with them).
+ */
+export function preparedPointStillValid(point: PreparedTrapezoidPoint, junction: Junction, biasV: number): boolean {
+  if (Math.abs(junction.tipWorkFunctionEV - point.builtTipWorkFunctionEV) > 0.05) return false;
+  if (Math.abs(junction.sampleWorkFunctionEV - point.builtSampleWorkFunctionEV) > 0.05) return false;
+  const rate = trapezoidDecayRates(junction, biasV).decayRatePerEV;
+  if (!(rate > point.builtDecayRatePerEV / 1.15 && rate < point.builtDecayRatePerEV * 1.15)) return false;
+  const kT = point.thermalEnergyEV;
+  return kT === 0 || point.sommerfeld === sommerfeldApplies(junction, biasV, kT, rate);
+}
+
+/** J (A/m²) and its gradient from a prepared layout (see trapezoidCurrentDensityWithGradient). */
+export function preparedTrapezoidCurrentDensity(point: PreparedTrapezoidPoint, junction: Junction, biasV: number, gradient: Float64Array | null): number {
+  const base = integrateTrapezoid(junction, biasV, point.grid, gradient);
+  const kT = point.thermalEnergyEV;
+  if (!point.sommerfeld || kT === 0 || biasV === 0) return base;
   if (gradient !== null) {
     correctionGradient[0] = 0;
     correctionGradient[1] = 0;
@@ -91,7 +149,7 @@ export function trapezoidCurrentDensityWithGradient(
     gradient[1] += correctionGradient[1];
     gradient[2] += correctionGradient[2];
   }
-  return zeroKelvin + correction;
+  return base + correction;
 }
 
 const correctionGradient = new Float64Array(3);
@@ -171,12 +229,6 @@ function integrateTrapezoid(junction: Junction, biasV: number, layout: EnergyGri
   gradient[1] = -c * a0 * sumPhi2;
   gradient[2] = (-c * a0 * sumGap) / junction.gapM;
   return c * sum;
-}
-
-/** Build the full-path energy layout for a trapezoid at one bias (Fermi functions in the weights). */
-export function buildTrapezoidGrid(grid: EnergyGrid, junction: Junction, biasV: number, temperatureK: number): EnergyGrid {
-  const rates = trapezoidDecayRates(junction, biasV);
-  return buildEnergyGrid(grid, { biasV, temperatureK, fermiEnergyEV: junction.fermiEnergyEV, ...rates });
 }
 
 /**

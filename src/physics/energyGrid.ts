@@ -40,9 +40,20 @@ const legendre = gaussLegendre(PANEL_NODES);
 const deepRules = [legendre, gaussLegendre(4), gaussLegendre(3)];
 const laguerre = gaussLaguerre(TAIL_NODES);
 
-/** An empty grid with room for the largest layout. */
-export function createEnergyGrid(): EnergyGrid {
-  return { energiesEV: new Float64Array(MAX_NODES), weightsEV2: new Float64Array(MAX_NODES), count: 0 };
+/** An empty grid; it grows when a layout needs more nodes than `capacity`. */
+export function createEnergyGrid(capacity = MAX_NODES): EnergyGrid {
+  return { energiesEV: new Float64Array(capacity), weightsEV2: new Float64Array(capacity), count: 0 };
+}
+
+function reserve(grid: EnergyGrid, extra: number): void {
+  if (grid.count + extra <= grid.energiesEV.length) return;
+  const capacity = Math.max(2 * grid.energiesEV.length, grid.count + extra);
+  const energies = new Float64Array(capacity);
+  const weights = new Float64Array(capacity);
+  energies.set(grid.energiesEV.subarray(0, grid.count));
+  weights.set(grid.weightsEV2.subarray(0, grid.count));
+  grid.energiesEV = energies;
+  grid.weightsEV2 = weights;
 }
 
 /** ln(1 + e^y) without overflow or loss. */
@@ -65,6 +76,7 @@ function addPanel(grid: EnergyGrid, from: number, to: number, biasV: number, kT:
   if (!(to > from)) return;
   const half = 0.5 * (to - from);
   const middle = 0.5 * (to + from);
+  reserve(grid, rule.nodes.length);
   for (let i = 0; i < rule.nodes.length; i++) {
     const energy = middle + half * rule.nodes[i];
     const k = grid.count++;
@@ -159,6 +171,7 @@ export function buildEnergyGrid(
   addSplitPanels(grid, Math.max(bottom, lower - edge), Math.max(bottom, upper + edge), panelWidth, biasV, kT, marks);
   // Thermal tail above the upper Fermi level: ∫_0^∞ e^{−t} [N e^{t}] D k_BT dt.
   const tailStart = Math.max(bottom, upper + edge);
+  reserve(grid, TAIL_NODES);
   for (let i = 0; i < TAIL_NODES; i++) {
     const t = laguerre.nodes[i];
     const energy = tailStart + kT * t;

@@ -6,6 +6,7 @@ export * from './wkbExponent.ts';
 export * from './quadrature.ts';
 export * from './energyGrid.ts';
 export * from './currentDensity.ts';
+export * from './trapezoidSpectrum.ts';
 export * from './tipArea.ts';
 export * from './apparentBarrier.ts';
 export * from './random.ts';

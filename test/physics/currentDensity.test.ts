@@ -3,8 +3,10 @@ import { describe, expect, it } from 'vitest';
 import {
   BOLTZMANN_EV_PER_K,
   SUPPLY_CONSTANT_A_PER_M2_PER_EV2,
-  buildTrapezoidGrid,
-  createEnergyGrid,
+  createPreparedTrapezoidPoint,
+  prepareTrapezoidPoint,
+  preparedTrapezoidCurrentDensity,
+  TrapezoidSpectrum,
   sampledCurrentDensity,
   trapezoidCurrentDensity,
   trapezoidCurrentDensityWithGradient,
@@ -115,10 +117,27 @@ describe('trapezoidCurrentDensity', () => {
     }
   });
 
-  it('a reused full-path grid gives the same current', () => {
-    const j = junction(4, 4, 10);
-    const grid = buildTrapezoidGrid(createEnergyGrid(), j, 0.5, 300);
-    expectRelClose(trapezoidCurrentDensityWithGradient(j, 0.5, 300, null, grid), bruteForceCurrentDensity(j, 0.5, 300), 2e-5);
+  it('a prepared layout reused for nearby parameters gives the same current', () => {
+    const point = createPreparedTrapezoidPoint();
+    prepareTrapezoidPoint(point, junction(4, 4, 10), 0.5, 300);
+    const moved = junction(4.04, 3.97, 10.8);
+    expectRelClose(preparedTrapezoidCurrentDensity(point, moved, 0.5, null), bruteForceCurrentDensity(moved, 0.5, 300), 2e-5);
+  });
+
+  it('TrapezoidSpectrum evaluates a whole sweep like the point function, gradient included', () => {
+    const biases = Float64Array.from({ length: 41 }, (_, i) => -2 + i * 0.1 + 1e-3);
+    const spectrum = new TrapezoidSpectrum(biases, 300);
+    const current = new Float64Array(41);
+    const gradient = new Float64Array(41 * 3);
+    const point = new Float64Array(3);
+    for (const j of [junction(4, 4.5, 8), junction(4.03, 4.46, 8.3), junction(2.5, 5, 12)]) {
+      spectrum.evaluate(j, current, gradient);
+      for (let i = 0; i < 41; i++) {
+        const expected = trapezoidCurrentDensityWithGradient(j, biases[i], 300, point);
+        expectRelClose(current[i], expected, 2e-5);
+        for (let k = 0; k < 3; k++) expectRelClose(gradient[3 * i + k], point[k], 1e-3);
+      }
+    }
   });
 
   it('sampledCurrentDensity of a sampled trapezoid equals trapezoidCurrentDensity', () => {

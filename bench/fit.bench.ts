@@ -1,0 +1,218 @@
+/**
+ * Fit speed and recovery, one core (Node runs each fit on the main thread).
+ *  (a) fitApproachCurve on 256-point I(z) curves that saturate at 10 nA and decay into a 2 pA floor:
+ *      fits per second (target ≥ 100,000/s) and recovery error of φ_ap against the true 4 eV.
+ *  (b) fitSpectrum on 512-point WKB I(V) at 300 K from its automatic start (BDR → Simmons → WKB),
+ *      with the area tied to the tip radius and free: median ms per curve (target ≤ 10 ms),
+ *      % converged, median recovery error of φ̄ and d.
+ *  (c) Simmons, 512 points (target ≤ 0.5 ms): fitSpectrum runs BDR + Simmons + WKB together and the
+ *      Simmons step is not callable alone, so this prints fitSpectrum's total on Simmons data, the
+ *      Simmons share estimated from its evaluation count × the cost of one Simmons sweep, and a
+ *      stand-alone Simmons fit (the same intermediate formula through createSolver) timed directly.
+ * Prints figures only; nothing is asserted. Run: npx tsx bench/run.ts fit
+ */
+import { fitApproachCurve } from '../src/fit/approachCurveFit.ts';
+import { createSolver, gaussian, mulberry32, type LeastSquaresProblem } from '../src/fit/index.ts';
+import { fitSpectrum, type AreaConstraint, type SpectrumFit } from '../src/fit/spectrumFit.ts';
+import {
+  TrapezoidSpectrum,
+  simmonsCurrentDensityDerivatives,
+  simmonsDissimilarCurrentDensity,
+  simulateCurve,
+  trapezoidCurrentDensity,
+  type CurrentDensityModel,
+  type Junction,
+} from '../src/physics/index.ts';
+import { median, medianMs } from './timing.ts';
+
+const FERMI_ENERGY_EV = 5.5;
+const TIP_RADIUS_M = 10e-9;
+
+function percent(part: number, whole: number): string {
+  return `${((100 * part) / whole).toFixed(0)} %`;
+}
+
+// ---------------------------------------------------------------------------------------------
+// (a) approach curves
+
+function approachCurves(count: number): { zM: Float64Array; currentA: Float64Array }[] {
+  // φ = 4 eV (|d lnI/dz| = 2.0493e10 /m), 20 nA at z = 0 clipped at 10 nA, 2.5 % + 2 pA noise, 0 → 6 Å
+  const slope = -Math.sqrt(4 / 0.95249553) * 1e10;
+  const curves: { zM: Float64Array; currentA: Float64Array }[] = [];
+  for (let c = 0; c < count; c++) {
+    const random = mulberry32(500 + c);
+    const zM = new Float64Array(256);
+    const currentA = new Float64Array(256);
+    for (let i = 0; i < 256; i++) {
+      zM[i] = (i * 6e-10) / 255;
+      const current = 2e-8 * Math.exp(slope * zM[i]);
+      currentA[i] = Math.min(1e-8, current * (1 + 0.025 * gaussian(random)) + 2e-12 * gaussian(random));
+    }
+    curves.push({ zM, currentA });
+  }
+  return curves;
+}
+
+function benchApproach(): void {
+  const curves = approachCurves(64);
+  const run = (): void => {
+    for (const curve of curves) fitApproachCurve({ zM: curve.zM, currentA: curve.currentA, biasV: 0.1 });
+  };
+  const ms = medianMs(run, 25, 5);
+  const errors: number[] = [];
+  const pulls: number[] = [];
+  let saturated = 0;
+  let floor = 0;
+  for (const curve of curves) {
+    const fit = fitApproachCurve({ zM: curve.zM, currentA: curve.currentA, biasV: 0.1 });
+    errors.push(Math.abs(fit.apparentBarrierEV - 4) / 4);
+    pulls.push(Math.abs(fit.apparentBarrierEV - 4) / fit.apparentBarrierErrorEV);
+    saturated += fit.saturationCount;
+    floor += fit.noiseFloorCount;
+  }
+  console.log('(a) fitApproachCurve, 256 points, saturation at 10 nA + 2 pA floor detection (64 curves)');
+  console.log(`    ${((1000 * curves.length) / ms).toFixed(0)} fits/s (${((1000 * ms) / curves.length).toFixed(2)} µs per fit; target ≥ 100,000/s)`);
+  console.log(
+    `    φ_ap recovery: median |Δφ|/φ ${median(errors).toExponential(2)}, median |pull| ${median(pulls).toFixed(2)}, ` +
+      `${percent(pulls.filter((p) => p <= 3).length, pulls.length)} within 3σ; per curve ${(saturated / curves.length).toFixed(1)} saturated, ${(floor / curves.length).toFixed(0)} floor points`,
+  );
+}
+
+// ---------------------------------------------------------------------------------------------
+// (b) WKB spectra and (c) Simmons spectra
+
+function spectrum(junction: Junction, density: CurrentDensityModel, seed: number): { biasV: Float64Array; currentA: Float64Array } {
+  const simulation = simulateCurve({
+    kind: 'iv',
+    junction,
+    currentDensity: density,
+    area: { tipRadiusM: TIP_RADIUS_M },
+    temperatureK: 300,
+    biasV: 0,
+    sweep: { from: -1, to: 1, points: 512 },
+    noise: { relative: 0.01, floorA: 2e-12, seed },
+  });
+  return { biasV: Float64Array.from(simulation.points, (p) => p.biasV), currentA: Float64Array.from(simulation.points, (p) => p.currentA) };
+}
+
+function fitOf(data: { biasV: Float64Array; currentA: Float64Array }, area: AreaConstraint): SpectrumFit {
+  return fitSpectrum({ ...data, temperatureK: 300, fermiEnergyEV: FERMI_ENERGY_EV, area });
+}
+
+/** Median ms of one 512-point sweep with gradient: TrapezoidSpectrum (layout reused) and Simmons. */
+function sweepCosts(biasV: Float64Array, junction: Junction): { wkbMs: number; simmonsMs: number } {
+  const trapezoid = new TrapezoidSpectrum(biasV, 300);
+  const current = new Float64Array(biasV.length);
+  const gradient = new Float64Array(3 * biasV.length);
+  let step = 0;
+  const wkbMs = medianMs(() => trapezoid.evaluate({ ...junction, gapM: junction.gapM * (1 + 1e-7 * (step++ % 7)) }, current, gradient), 41, 5);
+  const simmonsMs = medianMs(() => {
+    for (let i = 0; i < biasV.length; i++) {
+      if (biasV[i] !== 0) current[i] = simmonsCurrentDensityDerivatives({ meanBarrierEV: 4.2 - Math.abs(biasV[i]) / 2, widthM: junction.gapM, biasV: biasV[i] }).currentDensityAPerM2;
+    }
+  }, 41, 5);
+  return { wkbMs, simmonsMs };
+}
+
+function benchWkb(): void {
+  const junction: Junction = { tipWorkFunctionEV: 4.0, sampleWorkFunctionEV: 4.6, gapM: 0.6e-9, fermiEnergyEV: FERMI_ENERGY_EV };
+  const curves = Array.from({ length: 12 }, (_, k) => spectrum(junction, trapezoidCurrentDensity, 100 + k));
+  const costs = sweepCosts(curves[0].biasV, junction);
+  console.log('(b) fitSpectrum, WKB trapezoid I(V), 512 points, 300 K, 1 % + 2 pA, automatic start (12 curves)');
+  for (const area of [{ mode: 'tip-radius', tipRadiusM: TIP_RADIUS_M }, { mode: 'free' }] as AreaConstraint[]) {
+    const times: number[] = [];
+    const meanErrors: number[] = [];
+    const widthErrors: number[] = [];
+    const evaluations: number[] = [];
+    let converged = 0;
+    let stuck = 0;
+    for (const data of curves) {
+      times.push(medianMs(() => fitOf(data, area), 3, 1));
+      const wkb = fitOf(data, area).wkb;
+      if (wkb.converged) converged++;
+      if (wkb.status === 'stuck-at-bound') stuck++;
+      meanErrors.push(Math.abs(wkb.meanBarrierEV - 4.3) / 4.3);
+      widthErrors.push(Math.abs(wkb.widthM - 0.6e-9) / 0.6e-9);
+      evaluations.push(wkb.evaluations);
+    }
+    console.log(
+      `    area ${area.mode.padEnd(10)}: ${median(times).toFixed(1)} ms per curve (fitSpectrum total; target ≤ 10 ms), ` +
+        `${percent(converged, curves.length)} converged (${stuck} of them on a bound), median |Δφ̄|/φ̄ ${median(meanErrors).toExponential(2)}, |Δd|/d ${median(widthErrors).toExponential(2)}`,
+    );
+    console.log(
+      `      WKB step: median ${median(evaluations)} model evaluations × ${costs.wkbMs.toFixed(2)} ms per 512-point sweep with gradient ≈ ${(median(evaluations) * costs.wkbMs).toFixed(1)} ms`,
+    );
+  }
+}
+
+/** Stand-alone Simmons fit (φ0, d Å; area fixed), the intermediate formula of fitSpectrum's Simmons step. */
+function simmonsProblem(data: { biasV: Float64Array; currentA: Float64Array }, weights: Float64Array, areaM2: number): LeastSquaresProblem {
+  const n = data.biasV.length;
+  return {
+    nParams: 2,
+    nResiduals: n,
+    residuals(params, out) {
+      for (let i = 0; i < n; i++) {
+        const biasV = data.biasV[i];
+        const model = biasV === 0 ? 0 : areaM2 * simmonsCurrentDensityDerivatives({ meanBarrierEV: params[0] - Math.abs(biasV) / 2, widthM: params[1] * 1e-10, biasV }).currentDensityAPerM2;
+        out[i] = (data.currentA[i] - model) * weights[i];
+      }
+    },
+    jacobian(params, out) {
+      for (let i = 0; i < n; i++) {
+        const biasV = data.biasV[i];
+        if (biasV === 0) {
+          out[2 * i] = 0;
+          out[2 * i + 1] = 0;
+          continue;
+        }
+        const d = simmonsCurrentDensityDerivatives({ meanBarrierEV: params[0] - Math.abs(biasV) / 2, widthM: params[1] * 1e-10, biasV });
+        out[2 * i] = -weights[i] * areaM2 * d.dCurrentDensityDMeanBarrier;
+        out[2 * i + 1] = -weights[i] * areaM2 * d.dCurrentDensityDWidth * 1e-10;
+      }
+    },
+  };
+}
+
+function benchSimmons(): void {
+  const junction: Junction = { tipWorkFunctionEV: 4.2, sampleWorkFunctionEV: 4.2, gapM: 0.6e-9, fermiEnergyEV: FERMI_ENERGY_EV };
+  const simmons: CurrentDensityModel = (j, biasV) => simmonsDissimilarCurrentDensity(j, biasV, { useBeta: false });
+  const curves = Array.from({ length: 12 }, (_, k) => spectrum(junction, simmons, 200 + k));
+  const costs = sweepCosts(curves[0].biasV, junction);
+  const area: AreaConstraint = { mode: 'tip-radius', tipRadiusM: TIP_RADIUS_M };
+  const totals: number[] = [];
+  const evaluations: number[] = [];
+  const alone: number[] = [];
+  const aloneErrors: number[] = [];
+  const aloneEvaluations: number[] = [];
+  let converged = 0;
+  const solver = createSolver(2, 512);
+  for (const data of curves) {
+    totals.push(medianMs(() => fitOf(data, area), 3, 1));
+    const result = fitOf(data, area);
+    if (result.simmons.converged) converged++;
+    evaluations.push(result.simmons.evaluations);
+    // the stand-alone fit: same weights, area fixed at the Simmons step's result, start 4 eV / 8 Å
+    const problem = simmonsProblem(data, result.weights, result.simmons.areaM2);
+    const bounds = { lower: [1.1, 2], upper: [15, 100] }; // φ̄ = φ0 − |V|/2 stays > 0 over ±1 V
+    alone.push(medianMs(() => solver.solve(problem, [4, 8], bounds), 21, 3));
+    const fitted = solver.solve(problem, [4, 8], bounds);
+    aloneErrors.push(Math.abs(fitted.params[0] - 4.2) / 4.2);
+    aloneEvaluations.push(fitted.nEvaluations + fitted.nJacobianEvaluations);
+  }
+  console.log('(c) Simmons intermediate formula, symmetric 4.2 eV, 6 Å, 512 points, 1 % + 2 pA (12 curves)');
+  console.log(`    fitSpectrum total (BDR + Simmons + WKB): ${median(totals).toFixed(1)} ms per curve; Simmons step ${percent(converged, curves.length)} converged`);
+  console.log(
+    `    Simmons share ≈ median ${median(evaluations)} evaluations × ${costs.simmonsMs.toFixed(3)} ms per sweep ≈ ${(median(evaluations) * costs.simmonsMs).toFixed(2)} ms (target ≤ 0.5 ms)`,
+  );
+  console.log(
+    `    stand-alone Simmons fit (createSolver, area fixed, start 4 eV / 8 Å): ${median(alone).toFixed(2)} ms per curve ` +
+      `(median ${median(aloneEvaluations)} residual + Jacobian sweeps), median |Δφ̄|/φ̄ ${median(aloneErrors).toExponential(2)}`,
+  );
+}
+
+export default async function (): Promise<void> {
+  benchApproach();
+  benchWkb();
+  benchSimmons();
+}

@@ -1,0 +1,127 @@
+import { readFileSync, writeFileSync } from 'node:fs';
+import { resolve } from 'node:path';
+import { analyzeCurve, type CurveResult } from '../analysis/analyzeCurve.ts';
+import { finishBatch } from '../analysis/analyzeBatch.ts';
+import { RESULT_COLUMNS } from '../io/resultColumns.ts';
+import { validateSettings, type AnalysisSettings } from '../fit/index.ts';
+import { toCsv } from '../io/exportResults.ts';
+import { importPaths } from '../io/readFileNode.ts';
+import { defaultPoolSize, runAnalysisPool } from '../workers/nodePool.ts';
+import type { AnalysisTask } from '../workers/analysisTask.ts';
+import { parseArgs, UsageError, type FlagSpecs } from './args.ts';
+import type { Command, CommandIO } from './command.ts';
+import { formatProblem } from './formatProblem.ts';
+
+const flags: FlagSpecs = {
+  settings: { kind: 'string', help: 'JSON file with the analysis settings (schema in the README)' },
+  out: { kind: 'string', help: 'write results to FILE.json or FILE.csv instead of printing JSON' },
+  model: { kind: 'string', help: 'auto: I(z) line for approach curves, WKB for spectra; or force one', choices: ['auto', 'iz', 'wkb', 'simmons', 'bdr'] },
+  workers: { kind: 'number', help: 'worker threads (default: one per core; 1 fits in this process)', min: 1, max: 64, integer: true },
+};
+
+/** Below this many curves, fitting in-process beats starting worker threads. */
+const IN_PROCESS_BELOW = 24;
+
+export const fitCommand: Command = {
+  name: 'fit',
+  summary: 'Fit and flag every curve in the given files or folders; JSON on stdout, or --out FILE.json|FILE.csv',
+  usage: 'burrow fit <files or folders…> [--settings settings.json] [--out results.json|results.csv] [--model auto|iz|wkb|simmons|bdr] [--workers N]',
+  flags,
+  async run(argv, io) {
+    const { flags: f, positionals } = parseArgs('fit', argv, flags);
+    if (positionals.length === 0) throw new UsageError('burrow fit: give at least one file or folder');
+    const settings = readSettings(f.settings as string | undefined, io);
+    if (typeof f.model === 'string') settings.model = f.model as AnalysisSettings['model'];
+    const out = f.out as string | undefined;
+    if (out !== undefined && !/\.(json|csv)$/i.test(out)) throw new UsageError(`burrow fit: --out must end in .json or .csv, got '${out}'`);
+
+    const files = await importPaths(positionals, { cwd: io.cwd });
+    let badInput = false;
+    for (const file of files) {
+      for (const problem of file.problems) {
+        if (problem.severity === 'error') badInput = true;
+        io.stderr(formatProblem(problem) + '\n');
+      }
+    }
+    const curves = files.flatMap((file) => file.curves);
+    const chosen = curves.filter((curve) => settings.model === 'auto' || (settings.model === 'iz') === (curve.kind === 'iz'));
+    if (chosen.length < curves.length) io.stderr(`burrow fit: --model ${settings.model} skips ${curves.length - chosen.length} curves of the other kind\n`);
+    const tasks: AnalysisTask[] = chosen.map((curve) => ({ curve, settings }));
+    const size = (f.workers as number | undefined) ?? defaultPoolSize();
+    const progress = progressBar(io, tasks.length);
+    let results: CurveResult[];
+    if (size === 1 || tasks.length < IN_PROCESS_BELOW) {
+      results = tasks.map((task, i) => {
+        const result = analyzeCurve(task.curve, task.settings);
+        progress(i + 1);
+        return result;
+      });
+    } else {
+      const raw = await runAnalysisPool(tasks, size, { onProgress: (done) => progress(done) });
+      results = raw.map((result, i) => (result instanceof Error ? failedResult(tasks[i], result) : result));
+    }
+    results = finishBatch(results);
+    if (io.stderrIsTTY && tasks.length) io.stderr('\n');
+    const flagged = results.filter((r) => r.flags.length).length;
+    io.stderr(`burrow fit: ${results.length} curves from ${files.length} files; ${results.filter((r) => r.status === 'ok').length} fitted, ${flagged} flagged\n`);
+    if (out === undefined) io.stdout(JSON.stringify(results, null, 1) + '\n');
+    else {
+      const text = /\.csv$/i.test(out) ? toCsv(results, RESULT_COLUMNS) : JSON.stringify({ settings, results }, null, 1) + '\n';
+      writeFileSync(resolve(io.cwd, out), text);
+      io.stderr(`burrow fit: wrote ${out}\n`);
+    }
+    return badInput ? 2 : 0;
+  },
+};
+
+/** A worker that died on a task: fit that curve here instead (analyzeCurve never throws). */
+function failedResult(task: AnalysisTask, error: Error): CurveResult {
+  const result = analyzeCurve(task.curve, task.settings);
+  return result.status === 'ok' ? result : { ...result, message: `${result.message} (worker: ${error.message})` };
+}
+
+/** Read and validate a settings file; any problem is a UsageError naming the file, field, range and value. */
+export function readSettings(path: string | undefined, io: CommandIO): AnalysisSettings {
+  if (path === undefined) return validateSettings({}).settings;
+  let text: string;
+  try {
+    text = readFileSync(resolve(io.cwd, path), 'utf8');
+  } catch (error) {
+    throw new UsageError(`burrow fit: cannot read --settings ${path} (${(error as NodeJS.ErrnoException).code ?? (error as Error).message})`);
+  }
+  let raw: unknown;
+  try {
+    raw = JSON.parse(text);
+  } catch (error) {
+    const message = (error as Error).message;
+    const position = Number(/position (\d+)/.exec(message)?.[1] ?? Number.NaN);
+    const where = Number.isFinite(position) ? lineColumn(text, position) : { line: 1, column: 1 };
+    throw new UsageError(`${path}:${where.line}:${where.column}: settings file is not valid JSON (${message})`);
+  }
+  const { settings, problems } = validateSettings(raw);
+  if (problems.length) {
+    const lines = problems.map((p) => `${path}:${lineColumn(text, Math.max(0, text.indexOf(`"${p.field}"`))).line}: ${p.message}`);
+    throw new UsageError(lines.join('\n'));
+  }
+  return settings;
+}
+
+function lineColumn(text: string, offset: number): { line: number; column: number } {
+  const before = text.slice(0, offset);
+  const line = before.split('\n').length;
+  return { line, column: offset - before.lastIndexOf('\n') };
+}
+
+/** A progress bar on stderr when it is a terminal; silent otherwise. */
+function progressBar(io: CommandIO, total: number): (done: number) => void {
+  if (!io.stderrIsTTY || total === 0) return () => {};
+  let last = -1;
+  return (done) => {
+    const percent = Math.floor((100 * done) / total);
+    if (percent === last) return;
+    last = percent;
+    const width = 30;
+    const filled = Math.round((width * done) / total);
+    io.stderr(`\rfitting [${'#'.repeat(filled)}${'.'.repeat(width - filled)}] ${done}/${total} curves`);
+  };
+}

@@ -1,0 +1,420 @@
+import {
+  CONDUCTANCE_QUANTUM_S,
+  apparentBarrierErrorEV,
+  apparentBarrierFromSlopeEV,
+  prefactorCorrectedBarrierEV,
+} from '../physics/index.ts';
+import { selectMedian } from './selectMedian.ts';
+import { weightedLine, type LineFit } from './weightedLine.ts';
+
+/**
+ * Fit of an approach curve I(z): ln|I| is linear in z, I = I0·e^{slope·z} (slope < 0, z grows as the
+ * tip retracts), weighted by a noise model of multiplicative plus additive parts,
+ *   σ²(ln I) = σ_rel² + (σ_floor/Î)²,
+ * after leaving out the preamp-clipped top and the points lost in the noise floor.
+ * From the slope: apparent barrier φ_ap = (ħ²/8m)·slope², κ = −slope/2 (physics.md §2);
+ * gap to point contact by extrapolating G = I/V to G0 = 2e²/h (physics.md §3).
+ *
+ * Exclusions, decided in this order and kept per point (see `ExclusionReason`):
+ * 1. outside a manual window; 2. non-finite; 3. saturation: a run of ≥ 2 points within
+ *    `saturationTolerance` of the largest |I| (or at a known limit); 4. noise floor: where the fitted
+ *    current is below `floorSignalRatio` × the floor σ (estimated from the tail when not given), and
+ *    points whose current has the wrong sign.
+ */
+export interface ApproachCurveInput {
+  /** Tip position, m; grows as the tip retracts. Any order; sorted inside. */
+  zM: Float64Array;
+  /** Current, A (sign follows the bias). */
+  currentA: Float64Array;
+  /** Bias during the approach, V (for the conductance and the contact extrapolation). */
+  biasV: number;
+  /** Known noise: relative σ of the current and additive σ in A; estimated when absent. */
+  noise?: { relative?: number; floorA?: number };
+  /** Known preamp limit, A (|I| at or above it is clipped). */
+  saturationLimitA?: number;
+  /** Manual fit window in z, m (inclusive). */
+  windowM?: { fromM: number; toM: number };
+  /** Setpoint current, A: the gap is reported at this current (else at the largest fitted current). */
+  setpointCurrentA?: number;
+  /** Points per sliding window of the local φ_ap(z) profile (default: n/8 clamped to 8…32). */
+  localWindowPoints?: number;
+}
+
+/** Why a point was left out (0 = used). */
+export const ExclusionReason = { used: 0, window: 1, invalid: 2, saturation: 3, noiseFloor: 4 } as const;
+export type ExclusionCode = (typeof ExclusionReason)[keyof typeof ExclusionReason];
+
+export interface ApproachCurveFit {
+  status: 'ok' | 'too-few-points' | 'no-decay';
+  message: string;
+  /** Original indices in ascending z (fit arrays below are in this order). */
+  order: Int32Array;
+  zM: Float64Array;
+  lnCurrent: Float64Array;
+  exclusion: Uint8Array;
+  fittedLnCurrent: Float64Array;
+  /** Weighted residuals (ln I − fit)/σ(ln I) of every point (excluded ones too). */
+  weightedResiduals: Float64Array;
+  weights: Float64Array;
+  slopePerM: number;
+  slopeErrorPerM: number;
+  interceptLnA: number;
+  /** Covariance of (intercept, slope) and the variance of the intercept. */
+  interceptVariance: number;
+  covarianceInterceptSlope: number;
+  apparentBarrierEV: number;
+  apparentBarrierErrorEV: number;
+  /** κ = −slope/2, 1/m; the current falls as e^{−2κz}. */
+  decayConstantPerM: number;
+  decayConstantErrorPerM: number;
+  /** Position where the extrapolated conductance reaches G0, m (in the curve's z). */
+  contactPositionM: number;
+  /** Distance from contact at the reference current, m, and its uncertainty (physics.md §3). */
+  gapToContactM: number;
+  gapToContactErrorM: number;
+  referenceCurrentA: number;
+  /** Barrier that a planar-WKB J ∝ e^{−2κs}/s would need to give the measured slope at that gap. */
+  prefactorCorrectedBarrierEV: number;
+  noiseFloorA: number;
+  relativeNoise: number;
+  saturationCount: number;
+  noiseFloorCount: number;
+  pointsUsed: number;
+  points: number;
+  /** R² of ln I, reduced χ² of the weighted residuals, RMS of ln I residuals, Durbin–Watson. */
+  r2: number;
+  reducedChi2: number;
+  rmsResidual: number;
+  durbinWatson: number;
+  /** Local φ_ap(z) from a sliding window of used points. */
+  localProfile: { zM: Float64Array; barrierEV: Float64Array; barrierErrorEV: Float64Array };
+}
+
+const SATURATION_TOLERANCE = 2e-3;
+const FLOOR_SIGNAL_RATIO = 3;
+const TAIL_FRACTION_OF_MAX = 0.02;
+const MIN_POINTS = 4;
+const MAD_TO_SIGMA = 1.482602218505602; // 1/Φ⁻¹(3/4), normal consistency of the MAD [textbook]
+
+/**
+ * Fit one approach curve (see ApproachCurveInput).
+ * @example fitApproachCurve({ zM, currentA, biasV: 0.1 }).apparentBarrierEV // ≈ 4 for a 4 eV exponential
+ */
+export function fitApproachCurve(input: ApproachCurveInput): ApproachCurveFit {
+  const n = input.zM.length;
+  if (input.currentA.length !== n) {
+    throw new Error(`fitApproachCurve: currentA must have the length of zM (${n}), got ${input.currentA.length}`);
+  }
+  const order = ascendingOrder(input.zM);
+  const zM = new Float64Array(n);
+  const signedCurrent = new Float64Array(n);
+  const sign = input.biasV < 0 ? -1 : 1;
+  for (let i = 0; i < n; i++) {
+    zM[i] = input.zM[order[i]];
+    signedCurrent[i] = sign * input.currentA[order[i]];
+  }
+  const exclusion = new Uint8Array(n);
+  const lnCurrent = new Float64Array(n);
+  const fitted = new Float64Array(n);
+  const weights = new Float64Array(n);
+  const scratch = new Float64Array(n);
+
+  // 1–3: window, invalid values, saturation.
+  let maxCurrent = 0;
+  for (let i = 0; i < n; i++) {
+    const z = zM[i];
+    const current = signedCurrent[i];
+    if (input.windowM && (z < input.windowM.fromM || z > input.windowM.toM)) exclusion[i] = ExclusionReason.window;
+    else if (!Number.isFinite(z) || !Number.isFinite(current)) exclusion[i] = ExclusionReason.invalid;
+    else if (current > maxCurrent) maxCurrent = current;
+    lnCurrent[i] = current > 0 ? Math.log(current) : Number.NaN;
+  }
+  const clipLevel = input.saturationLimitA !== undefined ? Math.min(Math.abs(input.saturationLimitA), maxCurrent) : maxCurrent;
+  let saturationCount = 0;
+  for (let i = 0; i < n; i++) if (exclusion[i] === 0 && signedCurrent[i] >= clipLevel * (1 - SATURATION_TOLERANCE)) saturationCount++;
+  if (saturationCount >= 2 || (input.saturationLimitA !== undefined && saturationCount >= 1)) {
+    for (let i = 0; i < n; i++) if (exclusion[i] === 0 && signedCurrent[i] >= clipLevel * (1 - SATURATION_TOLERANCE)) exclusion[i] = ExclusionReason.saturation;
+  } else saturationCount = 0;
+  let topCurrent = 0;
+  for (let i = 0; i < n; i++) if (exclusion[i] === 0 && signedCurrent[i] > topCurrent) topCurrent = signedCurrent[i];
+
+  // Initial unweighted line through the top two decades.
+  const mask = new Uint8Array(n);
+  let initialCount = 0;
+  for (let i = 0; i < n; i++) {
+    mask[i] = exclusion[i] === 0 && signedCurrent[i] >= topCurrent / 100 ? 1 : 0;
+    initialCount += mask[i];
+  }
+  if (initialCount < MIN_POINTS) for (let i = 0; i < n; i++) mask[i] = exclusion[i] === 0 && signedCurrent[i] > 0 ? 1 : 0;
+  let line = weightedLine(zM, lnCurrent, null, mask);
+  if (!(line.count >= MIN_POINTS && line.slope < 0)) return failed(input, order, zM, lnCurrent, exclusion, line, saturationCount);
+
+  // Noise floor σ: robust scatter of I − Î in the tail, unless given.
+  let floorA = input.noise?.floorA ?? Number.NaN;
+  if (!Number.isFinite(floorA)) {
+    let tail = 0;
+    const tailLn = Math.log(TAIL_FRACTION_OF_MAX * topCurrent);
+    for (let i = 0; i < n; i++) {
+      if (exclusion[i] !== 0) continue;
+      const predictedLn = line.intercept + line.slope * zM[i];
+      if (predictedLn < tailLn) scratch[tail++] = Math.abs(signedCurrent[i] - Math.exp(predictedLn));
+    }
+    floorA = tail >= 5 ? MAD_TO_SIGMA * selectMedian(scratch, tail) : 0;
+  }
+
+  let relativeNoise = input.noise?.relative ?? Number.NaN;
+  let noiseFloorCount = 0;
+  for (let pass = 0; pass < 2; pass++) {
+    const floorLn = floorA > 0 ? Math.log(FLOOR_SIGNAL_RATIO * floorA) : -Infinity;
+    noiseFloorCount = 0;
+    for (let i = 0; i < n; i++) {
+      if (exclusion[i] !== 0 && exclusion[i] !== ExclusionReason.noiseFloor) continue;
+      const predictedLn = line.intercept + line.slope * zM[i];
+      const lost = predictedLn < floorLn || !(signedCurrent[i] > 0);
+      exclusion[i] = lost ? ExclusionReason.noiseFloor : ExclusionReason.used;
+      if (lost) noiseFloorCount++;
+    }
+    // Relative noise from the ln I scatter where the floor is negligible, unless given.
+    if (!Number.isFinite(input.noise?.relative ?? Number.NaN)) {
+      let count = 0;
+      const cleanLn = floorA > 0 ? Math.log(10 * floorA) : -Infinity;
+      for (let i = 0; i < n; i++) {
+        if (exclusion[i] !== 0) continue;
+        const predictedLn = line.intercept + line.slope * zM[i];
+        if (predictedLn > cleanLn) scratch[count++] = Math.abs(lnCurrent[i] - predictedLn);
+      }
+      relativeNoise = count >= 5 ? Math.max(1e-6, MAD_TO_SIGMA * selectMedian(scratch, count)) : 0.01;
+    }
+    const floorSquared = floorA * floorA;
+    const relativeSquared = relativeNoise * relativeNoise;
+    for (let i = 0; i < n; i++) {
+      const predictedLn = line.intercept + line.slope * zM[i];
+      weights[i] = 1 / (relativeSquared + floorSquared * Math.exp(-2 * predictedLn));
+      mask[i] = exclusion[i] === 0 ? 1 : 0;
+    }
+    const refit = weightedLine(zM, lnCurrent, weights, mask);
+    if (!(refit.count >= MIN_POINTS && refit.slope < 0)) return failed(input, order, zM, lnCurrent, exclusion, refit, saturationCount);
+    line = refit;
+  }
+  return summarise(input, { order, zM, lnCurrent, signedCurrent, exclusion, fitted, weights, mask, line, floorA, relativeNoise, saturationCount, noiseFloorCount });
+}
+
+function ascendingOrder(zM: Float64Array): Int32Array {
+  const n = zM.length;
+  const order = new Int32Array(n);
+  let increasing = true;
+  let decreasing = true;
+  for (let i = 1; i < n; i++) {
+    if (!(zM[i] > zM[i - 1])) increasing = false;
+    if (!(zM[i] < zM[i - 1])) decreasing = false;
+  }
+  for (let i = 0; i < n; i++) order[i] = decreasing ? n - 1 - i : i;
+  if (!increasing && !decreasing) order.sort((a, b) => zM[a] - zM[b] || a - b);
+  return order;
+}
+
+interface FitState {
+  order: Int32Array;
+  zM: Float64Array;
+  lnCurrent: Float64Array;
+  signedCurrent: Float64Array;
+  exclusion: Uint8Array;
+  fitted: Float64Array;
+  weights: Float64Array;
+  mask: Uint8Array;
+  line: LineFit;
+  floorA: number;
+  relativeNoise: number;
+  saturationCount: number;
+  noiseFloorCount: number;
+}
+
+function summarise(input: ApproachCurveInput, s: FitState): ApproachCurveFit {
+  const { zM, lnCurrent, exclusion, fitted, weights, line } = s;
+  const n = zM.length;
+  const residuals = new Float64Array(n);
+  let sumY = 0;
+  let used = 0;
+  for (let i = 0; i < n; i++) {
+    fitted[i] = line.intercept + line.slope * zM[i];
+    residuals[i] = Number.isFinite(lnCurrent[i]) ? (lnCurrent[i] - fitted[i]) * Math.sqrt(weights[i]) : Number.NaN;
+    if (exclusion[i] === 0) {
+      sumY += lnCurrent[i];
+      used++;
+    }
+  }
+  const meanY = sumY / used;
+  let totalSS = 0;
+  let residualSS = 0;
+  let dwNumerator = 0;
+  let dwDenominator = 0;
+  let previous = Number.NaN;
+  for (let i = 0; i < n; i++) {
+    if (exclusion[i] !== 0) continue;
+    const r = lnCurrent[i] - fitted[i];
+    totalSS += (lnCurrent[i] - meanY) ** 2;
+    residualSS += r * r;
+    const weighted = residuals[i];
+    dwDenominator += weighted * weighted;
+    if (Number.isFinite(previous)) dwNumerator += (weighted - previous) ** 2;
+    previous = weighted;
+  }
+  const slope = line.slope;
+  const apparentBarrierEV = apparentBarrierFromSlopeEV(slope);
+  const apparentBarrierErr = apparentBarrierErrorEV(slope, line.slopeError);
+  // Contact: ln(G0·|V|) = intercept + slope·z_c.
+  const biasMagnitude = Math.abs(input.biasV);
+  const contactPositionM = (Math.log(CONDUCTANCE_QUANTUM_S * biasMagnitude) - line.intercept) / slope;
+  let referenceCurrentA = input.setpointCurrentA !== undefined ? Math.abs(input.setpointCurrentA) : 0;
+  if (!(referenceCurrentA > 0)) for (let i = 0; i < n; i++) if (exclusion[i] === 0) referenceCurrentA = Math.max(referenceCurrentA, s.signedCurrent[i]);
+  const referenceZ = (Math.log(referenceCurrentA) - line.intercept) / slope;
+  const gapToContactM = referenceZ - contactPositionM;
+  // physics.md §3: σ_z = (z − z_c)·σ_φ/(2φ)
+  const gapToContactErrorM = Math.abs(gapToContactM) * (apparentBarrierErr / (2 * apparentBarrierEV));
+  // The planar-WKB correction at the middle of the fitted range.
+  let middleZ = 0;
+  for (let i = 0; i < n; i++) if (exclusion[i] === 0) middleZ += zM[i] / used;
+  const prefactorCorrected = prefactorCorrectedBarrierEV(slope, Math.max(middleZ - contactPositionM, 1e-12));
+  return {
+    status: 'ok',
+    message: `fitted ${used} of ${n} points`,
+    order: s.order,
+    zM,
+    lnCurrent,
+    exclusion,
+    fittedLnCurrent: fitted,
+    weightedResiduals: residuals,
+    weights,
+    slopePerM: slope,
+    slopeErrorPerM: line.slopeError,
+    interceptLnA: line.intercept,
+    interceptVariance: line.interceptError ** 2,
+    covarianceInterceptSlope: line.covarianceInterceptSlope,
+    apparentBarrierEV,
+    apparentBarrierErrorEV: apparentBarrierErr,
+    decayConstantPerM: -slope / 2,
+    decayConstantErrorPerM: line.slopeError / 2,
+    contactPositionM,
+    gapToContactM,
+    gapToContactErrorM,
+    referenceCurrentA,
+    prefactorCorrectedBarrierEV: prefactorCorrected,
+    noiseFloorA: s.floorA,
+    relativeNoise: s.relativeNoise,
+    saturationCount: s.saturationCount,
+    noiseFloorCount: s.noiseFloorCount,
+    pointsUsed: used,
+    points: n,
+    r2: 1 - residualSS / totalSS,
+    reducedChi2: line.weightedResidualSumOfSquares / Math.max(1, used - 2),
+    rmsResidual: Math.sqrt(residualSS / used),
+    durbinWatson: dwNumerator / dwDenominator,
+    localProfile: localBarrierProfile(zM, lnCurrent, weights, exclusion, input.localWindowPoints ?? Math.min(32, Math.max(8, Math.round(used / 8)))),
+  };
+}
+
+/**
+ * Local apparent barrier φ_ap(z) from weighted lines over a sliding window of `windowPoints` used
+ * points, by running sums (O(n)). Window centres are the weighted mean z of each window.
+ * Source: physics.md §2 (φ_ap from the local slope); near contact the local value departs from the
+ * far one (Chen & Hamers 1991, cited there).
+ */
+export function localBarrierProfile(
+  zM: Float64Array,
+  lnCurrent: Float64Array,
+  weights: Float64Array,
+  exclusion: Uint8Array,
+  windowPoints: number,
+): ApproachCurveFit['localProfile'] {
+  let usedCount = 0;
+  for (let i = 0; i < zM.length; i++) if (exclusion[i] === 0) usedCount++;
+  const usedIndex = new Int32Array(usedCount);
+  for (let i = 0, k = 0; i < zM.length; i++) if (exclusion[i] === 0) usedIndex[k++] = i;
+  const w = Math.max(3, Math.min(windowPoints, usedCount));
+  const count = usedCount >= 3 ? usedCount - w + 1 : 0;
+  const out = { zM: new Float64Array(count), barrierEV: new Float64Array(count), barrierErrorEV: new Float64Array(count) };
+  if (count === 0) return out;
+  const origin = zM[usedIndex[0]];
+  const sums = new Float64Array(6); // Σw, Σwx, Σwy, Σwx², Σwxy, Σwy² with x in nm from the first point
+  for (let k = 0; k < w; k++) accumulate(sums, zM, lnCurrent, weights, usedIndex[k], origin, 1);
+  for (let c = 0; c < count; c++) {
+    if (c > 0) {
+      accumulate(sums, zM, lnCurrent, weights, usedIndex[c - 1], origin, -1);
+      accumulate(sums, zM, lnCurrent, weights, usedIndex[c + w - 1], origin, 1);
+    }
+    const sw = sums[0], sx = sums[1], sy = sums[2], sxx = sums[3], sxy = sums[4], syy = sums[5];
+    const det = sw * sxx - sx * sx;
+    const slopePerNm = (sw * sxy - sx * sy) / det;
+    const intercept = (sy - slopePerNm * sx) / sw;
+    const rss = Math.max(0, syy - intercept * sy - slopePerNm * sxy);
+    const slopeErrorPerNm = Math.sqrt((rss / Math.max(1, w - 2)) * (sw / det));
+    out.zM[c] = origin + sx / sw / 1e9;
+    out.barrierEV[c] = apparentBarrierFromSlopeEV(slopePerNm * 1e9);
+    out.barrierErrorEV[c] = apparentBarrierErrorEV(slopePerNm * 1e9, slopeErrorPerNm * 1e9);
+  }
+  return out;
+}
+
+function accumulate(sums: Float64Array, zM: Float64Array, lnCurrent: Float64Array, weights: Float64Array, i: number, origin: number, sign: number): void {
+  const x = (zM[i] - origin) * 1e9;
+  const y = lnCurrent[i];
+  const w = sign * weights[i];
+  sums[0] += w;
+  sums[1] += w * x;
+  sums[2] += w * y;
+  sums[3] += w * x * x;
+  sums[4] += w * x * y;
+  sums[5] += w * y * y;
+}
+
+function failed(
+  input: ApproachCurveInput,
+  order: Int32Array,
+  zM: Float64Array,
+  lnCurrent: Float64Array,
+  exclusion: Uint8Array,
+  line: LineFit,
+  saturationCount: number,
+): ApproachCurveFit {
+  const n = zM.length;
+  const tooFew = !(line.count >= MIN_POINTS);
+  const nan = Number.NaN;
+  return {
+    status: tooFew ? 'too-few-points' : 'no-decay',
+    message: tooFew
+      ? `only ${line.count} usable points (need ${MIN_POINTS}) after leaving out saturated, invalid and noise-floor points`
+      : `current does not fall with z (slope ${line.slope.toExponential(3)} per m); check the z direction or the calibration`,
+    order,
+    zM,
+    lnCurrent,
+    exclusion,
+    fittedLnCurrent: new Float64Array(n).fill(nan),
+    weightedResiduals: new Float64Array(n).fill(nan),
+    weights: new Float64Array(n),
+    slopePerM: line.slope,
+    slopeErrorPerM: nan,
+    interceptLnA: line.intercept,
+    interceptVariance: nan,
+    covarianceInterceptSlope: nan,
+    apparentBarrierEV: nan,
+    apparentBarrierErrorEV: nan,
+    decayConstantPerM: nan,
+    decayConstantErrorPerM: nan,
+    contactPositionM: nan,
+    gapToContactM: nan,
+    gapToContactErrorM: nan,
+    referenceCurrentA: input.setpointCurrentA ?? nan,
+    prefactorCorrectedBarrierEV: nan,
+    noiseFloorA: nan,
+    relativeNoise: nan,
+    saturationCount,
+    noiseFloorCount: 0,
+    pointsUsed: line.count,
+    points: n,
+    r2: nan,
+    reducedChi2: nan,
+    rmsResidual: nan,
+    durbinWatson: nan,
+    localProfile: { zM: new Float64Array(0), barrierEV: new Float64Array(0), barrierErrorEV: new Float64Array(0) },
+  };
+}

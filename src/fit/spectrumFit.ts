@@ -1,0 +1,640 @@
+import {
+  WKB_DECAY_PER_M_PER_SQRT_EV,
+  bdrInverse,
+  bdrZeroBiasConductancePerArea,
+  paraboloidTipAreaM2,
+  simmonsCurrentDensityDerivatives,
+  TrapezoidSpectrum,
+} from '../physics/index.ts';
+import type { Junction } from '../physics/index.ts';
+import { polynomialFit, polynomialValue } from './polynomialFit.ts';
+import { selectMedian } from './selectMedian.ts';
+import { createSolver, type LeastSquaresProblem, type SolverOptions, type SolverResult } from './solver.ts';
+
+/**
+ * Fits of a current–bias spectrum I(V) to tunnel-barrier models, each started from the data alone:
+ * 1. a polynomial I(V) (degree 5) gives G(0) = dI/dV|₀ and the Brinkman–Dynes–Rowell parabola
+ *    G(V)/G(0) = 1 + c1·V + c2·V², which inverts in closed form to (φ̄, Δφ, d) (bdrInverse);
+ * 2. Simmons' intermediate-voltage formula (φ̄, d, A) from the BDR values;
+ * 3. the WKB trapezoid with the full energy integral at the session's temperature (φ1, φ2, d, A)
+ *    from the Simmons values.
+ * Parameters are fitted as logarithms (positive, similar scales), with analytic Jacobians.
+ * Residuals are (I − model)/σ with σ² = (σ_rel·|Î|)² + σ_floor², σ from the polynomial residuals
+ * unless given. Covariance = s²(JᵀJ)⁻¹ (solver.ts); errors of derived quantities by linear propagation.
+ */
+
+/** How the tunnelling area is set: fitted, fixed, or tied to a paraboloid tip (A = πR/κ at φ̄). */
+export type AreaConstraint = { mode: 'free' } | { mode: 'fixed'; areaM2: number } | { mode: 'tip-radius'; tipRadiusM: number };
+
+export interface SpectrumInput {
+  biasV: Float64Array;
+  currentA: Float64Array;
+  temperatureK: number;
+  fermiEnergyEV: number;
+  area: AreaConstraint;
+  /** Fix φ1 at the tip material's work function, eV (else fitted). */
+  tipWorkFunctionEV?: number;
+  noise?: { relative?: number; floorA?: number };
+}
+
+export type SpectrumModelName = 'wkb' | 'simmons' | 'bdr';
+
+export interface BarrierEstimate {
+  model: SpectrumModelName;
+  status: string;
+  message: string;
+  converged: boolean;
+  uncertaintiesOk: boolean;
+  uncertaintyNote: string;
+  tipWorkFunctionEV: number;
+  tipWorkFunctionErrorEV: number;
+  sampleWorkFunctionEV: number;
+  sampleWorkFunctionErrorEV: number;
+  meanBarrierEV: number;
+  meanBarrierErrorEV: number;
+  /** φ2 − φ1, eV. */
+  asymmetryEV: number;
+  asymmetryErrorEV: number;
+  widthM: number;
+  widthErrorM: number;
+  areaM2: number;
+  areaErrorM2: number;
+  /** Names of the fitted quantities and their correlation matrix (row-major). */
+  correlationNames: string[];
+  correlation: number[];
+  chiSquare: number;
+  reducedChi2: number;
+  aic: number;
+  bic: number;
+  nPoints: number;
+  nFree: number;
+  iterations: number;
+  evaluations: number;
+  /** Model current at each bias, A. */
+  fittedCurrentA: Float64Array;
+}
+
+export interface SpectrumFit {
+  best: BarrierEstimate;
+  wkb: BarrierEstimate;
+  simmons: BarrierEstimate;
+  bdr: BarrierEstimate;
+  /** Models ranked by AIC on the same weighted residuals (lowest first). */
+  comparison: { model: SpectrumModelName; aic: number; bic: number; deltaAic: number }[];
+  /** Fowler–Nordheim regime: a classical turning point inside the barrier at the largest |V|. */
+  fowlerNordheim: { reached: boolean; onsetBiasV: number; message: string };
+  noise: { relative: number; floorA: number };
+  /** 1/σ per point. */
+  weights: Float64Array;
+}
+
+const MIN_BARRIER_EV = 0.01;
+const MAX_BARRIER_EV = 15;
+const MIN_WIDTH_M = 2e-11;
+const MAX_WIDTH_M = 1e-8;
+const START_MEAN_BARRIER_EV = 4; // typical clean-metal barrier, used only to start the BDR inverse (common practice, no source)
+const MAD_TO_SIGMA = 1.482602218505602;
+const SOLVER_OPTIONS: SolverOptions = { maxIterations: 200, functionTolerance: 1e-12, stepTolerance: 1e-10, gradientTolerance: 1e-12 };
+
+/**
+ * Fit one I(V) spectrum with BDR, Simmons and WKB (see the file comment); `best` is the WKB fit
+ * unless it failed to converge and Simmons did.
+ * @example fitSpectrum({ biasV, currentA, temperatureK: 300, fermiEnergyEV: 5.5, area: { mode: 'free' } }).best.meanBarrierEV
+ */
+export function fitSpectrum(input: SpectrumInput): SpectrumFit {
+  const { biasV, currentA } = input;
+  const n = biasV.length;
+  if (currentA.length !== n) throw new Error(`fitSpectrum: currentA must have the length of biasV (${n}), got ${currentA.length}`);
+  if (n < 8) throw new Error(`fitSpectrum: needs at least 8 points, got ${n}`);
+  const polynomial = polynomialFit(biasV, currentA, 5);
+  const smooth = new Float64Array(n);
+  for (let i = 0; i < n; i++) smooth[i] = polynomialValue(polynomial.coefficients, biasV[i]);
+  const noise = estimateNoise(currentA, smooth, input.noise);
+  const weights = new Float64Array(n);
+  for (let i = 0; i < n; i++) weights[i] = 1 / Math.sqrt((noise.relative * smooth[i]) ** 2 + noise.floorA ** 2);
+
+  const bdr = bdrEstimate(input, polynomial.coefficients, weights);
+  const zeroBiasConductanceS = Math.abs(polynomial.coefficients[1]) || 1e-12;
+  const bdrStart = { tipWorkFunctionEV: START_MEAN_BARRIER_EV, sampleWorkFunctionEV: START_MEAN_BARRIER_EV, widthM: Number.isFinite(bdr.widthM) ? bdr.widthM : 8e-10, areaM2: bdr.areaM2 };
+  const simmons = fitBarrierModel('simmons', input, weights, bdrStart, zeroBiasConductanceS);
+  const startFrom = simmons.converged ? simmons : bdr;
+  const asymmetry = Number.isFinite(bdr.asymmetryEV) ? bdr.asymmetryEV : 0;
+  const startMean = Number.isFinite(startFrom.meanBarrierEV) ? startFrom.meanBarrierEV : START_MEAN_BARRIER_EV;
+  const wkb = fitBarrierModel(
+    'wkb',
+    input,
+    weights,
+    {
+      tipWorkFunctionEV: input.tipWorkFunctionEV ?? clampBarrier(startMean - asymmetry / 2),
+      sampleWorkFunctionEV: clampBarrier(startMean + asymmetry / 2),
+      widthM: Number.isFinite(startFrom.widthM) ? startFrom.widthM : 8e-10,
+      areaM2: startFrom.areaM2,
+    },
+    zeroBiasConductanceS,
+  );
+  const best = wkb.converged || !simmons.converged ? wkb : simmons;
+  const ranked = [wkb, simmons, bdr].filter((e) => Number.isFinite(e.aic)).sort((a, b) => a.aic - b.aic);
+  const comparison = ranked.map((e) => ({ model: e.model, aic: e.aic, bic: e.bic, deltaAic: e.aic - ranked[0].aic }));
+  return { best, wkb, simmons, bdr, comparison, fowlerNordheim: fowlerNordheimCheck(biasV, best), noise, weights };
+}
+
+function clampBarrier(value: number): number {
+  return Math.min(MAX_BARRIER_EV * 0.9, Math.max(0.2, Number.isFinite(value) ? value : START_MEAN_BARRIER_EV));
+}
+
+/** Noise model from the residuals of a smooth fit: floor σ from the smallest-|I| quarter, relative σ from the largest half. */
+function estimateNoise(currentA: Float64Array, smooth: Float64Array, given?: { relative?: number; floorA?: number }): { relative: number; floorA: number } {
+  const n = currentA.length;
+  const byMagnitude = Array.from({ length: n }, (_, i) => i).sort((a, b) => Math.abs(smooth[a]) - Math.abs(smooth[b]));
+  const scratch = new Float64Array(n);
+  let maxCurrent = 0;
+  for (let i = 0; i < n; i++) maxCurrent = Math.max(maxCurrent, Math.abs(smooth[i]));
+  let floorA = given?.floorA ?? Number.NaN;
+  if (!Number.isFinite(floorA)) {
+    const quarter = Math.max(3, Math.floor(n / 4));
+    for (let k = 0; k < quarter; k++) scratch[k] = Math.abs(currentA[byMagnitude[k]] - smooth[byMagnitude[k]]);
+    floorA = MAD_TO_SIGMA * selectMedian(scratch, quarter);
+  }
+  floorA = Math.max(floorA, 1e-6 * maxCurrent);
+  let relative = given?.relative ?? Number.NaN;
+  if (!Number.isFinite(relative)) {
+    let count = 0;
+    for (let k = Math.floor(n / 2); k < n; k++) {
+      const i = byMagnitude[k];
+      scratch[count++] = Math.abs((currentA[i] - smooth[i]) / smooth[i]);
+    }
+    relative = MAD_TO_SIGMA * selectMedian(scratch, count);
+  }
+  return { relative: Math.max(relative, 1e-6), floorA };
+}
+
+function areaFor(constraint: AreaConstraint, meanBarrierEV: number, freeAreaM2: number): number {
+  if (constraint.mode === 'fixed') return constraint.areaM2;
+  if (constraint.mode === 'tip-radius') return paraboloidTipAreaM2(constraint.tipRadiusM, Math.max(meanBarrierEV, MIN_BARRIER_EV));
+  return freeAreaM2;
+}
+
+/** BDR from the polynomial's G(0), c1, c2; errors are not propagated (a quick estimate, not a fit). */
+function bdrEstimate(input: SpectrumInput, coefficients: Float64Array, weights: Float64Array): BarrierEstimate {
+  const g0 = coefficients[1];
+  const linearPerV = (2 * coefficients[2]) / g0;
+  const quadraticPerV2 = (3 * coefficients[3]) / g0;
+  let meanBarrierEV = START_MEAN_BARRIER_EV;
+  let widthM = Number.NaN;
+  let asymmetryEV = Number.NaN;
+  let areaM2 = Number.NaN;
+  let message = 'BDR parabola from the zero-bias conductance and its curvature';
+  let ok = g0 > 0 && quadraticPerV2 > 0;
+  if (ok) {
+    for (let iteration = 0; iteration < (input.area.mode === 'free' ? 1 : 8); iteration++) {
+      const known =
+        input.area.mode === 'free'
+          ? { meanBarrierEV: START_MEAN_BARRIER_EV }
+          : { zeroBiasConductanceSPerM2: g0 / areaFor(input.area, meanBarrierEV, Number.NaN) };
+      try {
+        const inverse = bdrInverse({ linearPerV, quadraticPerV2, known });
+        meanBarrierEV = inverse.meanBarrierEV;
+        widthM = inverse.widthM;
+        asymmetryEV = inverse.sampleWorkFunctionEV - inverse.tipWorkFunctionEV;
+      } catch (error) {
+        ok = false;
+        message = `BDR inverse failed: ${(error as Error).message}`;
+        break;
+      }
+    }
+  } else message = 'BDR needs G(0) > 0 and an upward conductance curvature; not found in this spectrum';
+  if (ok) areaM2 = areaFor(input.area, meanBarrierEV, g0 / bdrZeroBiasConductancePerArea({ meanBarrierEV, asymmetryEV, widthM }));
+  ok = ok && Number.isFinite(widthM) && widthM > 0 && Number.isFinite(areaM2);
+  const n = input.biasV.length;
+  const fitted = new Float64Array(n);
+  let chiSquare = 0;
+  for (let i = 0; i < n; i++) {
+    const v = input.biasV[i];
+    // I = G(0)·(V + c1V²/2 + c2V³/3), the integral of the BDR parabola.
+    fitted[i] = g0 * (v + (linearPerV * v * v) / 2 + (quadraticPerV2 * v * v * v) / 3);
+    chiSquare += ((input.currentA[i] - fitted[i]) * weights[i]) ** 2;
+  }
+  const nFree = 3;
+  return {
+    ...emptyEstimate('bdr', n),
+    status: ok ? 'closed-form' : 'failed',
+    message,
+    converged: ok,
+    uncertaintiesOk: false,
+    uncertaintyNote: 'BDR is a closed-form estimate; use the WKB fit for uncertainties',
+    tipWorkFunctionEV: ok ? meanBarrierEV - asymmetryEV / 2 : Number.NaN,
+    sampleWorkFunctionEV: ok ? meanBarrierEV + asymmetryEV / 2 : Number.NaN,
+    meanBarrierEV: ok ? meanBarrierEV : Number.NaN,
+    asymmetryEV: ok ? asymmetryEV : Number.NaN,
+    widthM: ok ? widthM : Number.NaN,
+    areaM2: ok ? areaM2 : Number.NaN,
+    chiSquare,
+    reducedChi2: chiSquare / (n - nFree),
+    aic: n * Math.log(chiSquare / n) + 2 * nFree,
+    bic: n * Math.log(chiSquare / n) + nFree * Math.log(n),
+    nPoints: n,
+    nFree,
+    fittedCurrentA: fitted,
+  };
+}
+
+function emptyEstimate(model: SpectrumModelName, n: number): BarrierEstimate {
+  const nan = Number.NaN;
+  return {
+    model,
+    status: 'not-run',
+    message: '',
+    converged: false,
+    uncertaintiesOk: false,
+    uncertaintyNote: '',
+    tipWorkFunctionEV: nan,
+    tipWorkFunctionErrorEV: nan,
+    sampleWorkFunctionEV: nan,
+    sampleWorkFunctionErrorEV: nan,
+    meanBarrierEV: nan,
+    meanBarrierErrorEV: nan,
+    asymmetryEV: nan,
+    asymmetryErrorEV: nan,
+    widthM: nan,
+    widthErrorM: nan,
+    areaM2: nan,
+    areaErrorM2: nan,
+    correlationNames: [],
+    correlation: [],
+    chiSquare: nan,
+    reducedChi2: nan,
+    aic: nan,
+    bic: nan,
+    nPoints: n,
+    nFree: 0,
+    iterations: 0,
+    evaluations: 0,
+    fittedCurrentA: new Float64Array(n),
+  };
+}
+
+/**
+ * A model on log-parameters: writes I_i and ∂I_i/∂q_j for the free log-parameters q.
+ * Residual_i = (I_meas − I_i)·w_i, so ∂r_i/∂q_j = −w_i ∂I_i/∂q_j. The Jacobian of the last
+ * residual evaluation is cached, since the solver asks for it at the point it just accepted.
+ */
+function logParameterProblem(
+  n: number,
+  nFree: number,
+  measured: Float64Array,
+  weights: Float64Array,
+  evaluate: (q: Float64Array, current: Float64Array, gradient: Float64Array) => void,
+): LeastSquaresProblem & { current: Float64Array } {
+  const current = new Float64Array(n);
+  const gradient = new Float64Array(n * nFree);
+  const cachedAt = new Float64Array(nFree).fill(Number.NaN);
+  const update = (q: Float64Array) => {
+    let same = true;
+    for (let j = 0; j < nFree; j++) if (cachedAt[j] !== q[j]) same = false;
+    if (same) return;
+    evaluate(q, current, gradient);
+    cachedAt.set(q);
+  };
+  return {
+    nParams: nFree,
+    nResiduals: n,
+    current,
+    residuals(q, out) {
+      update(q);
+      for (let i = 0; i < n; i++) out[i] = (measured[i] - current[i]) * weights[i];
+    },
+    jacobian(q, out) {
+      update(q);
+      for (let i = 0; i < n; i++) for (let j = 0; j < nFree; j++) out[i * nFree + j] = -weights[i] * gradient[i * nFree + j];
+    },
+  };
+}
+
+interface WkbStart {
+  tipWorkFunctionEV: number;
+  sampleWorkFunctionEV: number;
+  widthM: number;
+  areaM2: number;
+}
+
+/**
+ * Physical parameters of the WKB fit from the solver's parameters q.
+ * Free area ("sloppy-valley" coordinates, so that Levenberg–Marquardt does not crawl along the
+ * strong φ–d–A correlation of a lone I(V)): q = [ln φ̄, Δφ, ln u, ln G(0)] with u = d/√φ̄ (what the
+ * conductance curvature fixes, BDR: c2 ∝ d²/φ̄) and G(0) the zero-bias conductance (what the
+ * amplitude fixes); A = G(0)/g(φ1, φ2, d) with g the model's zero-bias conductance per area.
+ * With the tip fixed, Δφ is not free (φ2 = 2φ̄ − φ1). Area fixed or tied to the tip radius:
+ * q = [ln φ1, ln φ2, ln d] (φ1 omitted when fixed).
+ */
+interface WkbLayout {
+  names: string[];
+  physical(q: Float64Array): { tip: number; sample: number; width: number; logConductance: number };
+  /** ∂(φ1, φ2, d)/∂q_k written to out[3k … 3k+2], and ∂ln G(0)/∂q_k to outLogG[k]. */
+  derivatives(q: Float64Array, out: Float64Array, outLogG: Float64Array): void;
+}
+
+function barrierLayout(input: SpectrumInput, symmetric: boolean): WkbLayout {
+  const fixedTip = symmetric ? undefined : input.tipWorkFunctionEV;
+  if (symmetric) {
+    if (input.area.mode === 'free') {
+      return {
+        names: ['ln meanBarrierEV', 'ln widthPerSqrtBarrier', 'ln zeroBiasConductanceS'],
+        physical: (q) => {
+          const mean = Math.exp(q[0]);
+          return { tip: mean, sample: mean, width: Math.exp(q[1]) * Math.sqrt(mean), logConductance: q[2] };
+        },
+        derivatives: (q, out, outLogG) => {
+          const mean = Math.exp(q[0]);
+          const width = Math.exp(q[1]) * Math.sqrt(mean);
+          out.set([mean, mean, width / 2, 0, 0, width, 0, 0, 0]);
+          outLogG.set([0, 0, 1]);
+        },
+      };
+    }
+    return {
+      names: ['ln meanBarrierEV', 'ln widthM'],
+      physical: (q) => ({ tip: Math.exp(q[0]), sample: Math.exp(q[0]), width: Math.exp(q[1]), logConductance: Number.NaN }),
+      derivatives: (q, out, outLogG) => {
+        out.set([Math.exp(q[0]), Math.exp(q[0]), 0, 0, 0, Math.exp(q[1])]);
+        outLogG.fill(0);
+      },
+    };
+  }
+  if (input.area.mode === 'free') {
+    if (fixedTip === undefined) {
+      return {
+        names: ['ln meanBarrierEV', 'asymmetryEV', 'ln widthPerSqrtBarrier', 'ln zeroBiasConductanceS'],
+        physical: (q) => {
+          const mean = Math.exp(q[0]);
+          return { tip: mean - q[1] / 2, sample: mean + q[1] / 2, width: Math.exp(q[2]) * Math.sqrt(mean), logConductance: q[3] };
+        },
+        derivatives: (q, out, outLogG) => {
+          const mean = Math.exp(q[0]);
+          const width = Math.exp(q[2]) * Math.sqrt(mean);
+          out.set([mean, mean, width / 2, -0.5, 0.5, 0, 0, 0, width, 0, 0, 0]);
+          outLogG.set([0, 0, 0, 1]);
+        },
+      };
+    }
+    return {
+      names: ['ln meanBarrierEV', 'ln widthPerSqrtBarrier', 'ln zeroBiasConductanceS'],
+      physical: (q) => {
+        const mean = Math.exp(q[0]);
+        return { tip: fixedTip, sample: 2 * mean - fixedTip, width: Math.exp(q[1]) * Math.sqrt(mean), logConductance: q[2] };
+      },
+      derivatives: (q, out, outLogG) => {
+        const mean = Math.exp(q[0]);
+        const width = Math.exp(q[1]) * Math.sqrt(mean);
+        out.set([0, 2 * mean, width / 2, 0, 0, width, 0, 0, 0]);
+        outLogG.set([0, 0, 1]);
+      },
+    };
+  }
+  const offset = fixedTip === undefined ? 1 : 0;
+  return {
+    names: [...(fixedTip === undefined ? ['ln tipWorkFunctionEV'] : []), 'ln sampleWorkFunctionEV', 'ln widthM'],
+    physical: (q) => ({
+      tip: fixedTip ?? Math.exp(q[0]),
+      sample: Math.exp(q[offset]),
+      width: Math.exp(q[offset + 1]),
+      logConductance: Number.NaN,
+    }),
+    derivatives: (q, out, outLogG) => {
+      out.fill(0);
+      outLogG.fill(0);
+      if (fixedTip === undefined) out[0] = Math.exp(q[0]);
+      out[3 * offset + 1] = Math.exp(q[offset]);
+      out[3 * (offset + 1) + 2] = Math.exp(q[offset + 1]);
+    },
+  };
+}
+
+/** Bias of the zero-bias conductance probe, V (small enough to be ohmic to 1e-6). */
+const ZERO_BIAS_PROBE_V = 1e-4;
+
+/**
+ * J(V) of a model over a whole sweep, with the gradient ∂J_i/∂(φ1, φ2, d) at gradient[3i … 3i+2]
+ * (A/m² per eV, per eV, per m).
+ */
+type SweepDensity = (junction: Junction, current: Float64Array, gradient: Float64Array) => void;
+
+/**
+ * Simmons' intermediate-voltage J for the symmetric barrier φ0 tilted by V (1963b rules: φ̄ = φ0 − |V|/2,
+ * Δs = d while φ0 > |V|; beyond, the triangle φ̄ = φ0/2, Δs = d·φ0/|V|), with ∂J/∂φ0 split evenly
+ * over φ1 and φ2 so the barrier layouts' chain rule applies unchanged.
+ */
+function simmonsSweep(biasesV: Float64Array): SweepDensity {
+  const point = new Float64Array(3);
+  return (junction, current, gradient) => {
+    for (let i = 0; i < biasesV.length; i++) {
+      current[i] = simmonsDensity(junction, biasesV[i], point);
+      gradient[3 * i] = point[0];
+      gradient[3 * i + 1] = point[1];
+      gradient[3 * i + 2] = point[2];
+    }
+  };
+}
+
+function simmonsDensity(junction: Junction, biasV: number, gradient: Float64Array): number {
+  const barrier0 = junction.tipWorkFunctionEV;
+  const width = junction.gapM;
+  const magnitude = Math.abs(biasV);
+  const triangle = magnitude >= barrier0;
+  const mean = triangle ? barrier0 / 2 : barrier0 - magnitude / 2;
+  const forbidden = triangle ? (width * barrier0) / magnitude : width;
+  const d = simmonsCurrentDensityDerivatives({ meanBarrierEV: mean, widthM: forbidden, biasV });
+  const dBarrier = d.dCurrentDensityDMeanBarrier * (triangle ? 0.5 : 1) + d.dCurrentDensityDWidth * (triangle ? width / magnitude : 0);
+  gradient[0] = dBarrier / 2;
+  gradient[1] = dBarrier / 2;
+  gradient[2] = d.dCurrentDensityDWidth * (triangle ? barrier0 / magnitude : 1);
+  return d.currentDensityAPerM2;
+}
+
+function wkbSweep(biasesV: Float64Array, temperatureK: number): SweepDensity {
+  const spectrum = new TrapezoidSpectrum(biasesV, temperatureK);
+  return (junction, current, gradient) => spectrum.evaluate(junction, current, gradient);
+}
+
+function fitBarrierModel(
+  model: 'wkb' | 'simmons',
+  input: SpectrumInput,
+  weights: Float64Array,
+  start: WkbStart,
+  zeroBiasConductanceS: number,
+): BarrierEstimate {
+  const { biasV, currentA, temperatureK, fermiEnergyEV } = input;
+  const n = biasV.length;
+  const symmetric = model === 'simmons';
+  const sweep = symmetric ? simmonsSweep(biasV) : wkbSweep(biasV, temperatureK);
+  const probeBias = Float64Array.of(ZERO_BIAS_PROBE_V);
+  const probeSweep = symmetric ? simmonsSweep(probeBias) : wkbSweep(probeBias, temperatureK);
+  const probeCurrent = new Float64Array(1);
+  const sweepCurrent = new Float64Array(n);
+  const sweepGradient = new Float64Array(3 * n);
+  const layout = barrierLayout(input, symmetric);
+  const nFree = layout.names.length;
+  const freeArea = input.area.mode === 'free';
+  const tied = input.area.mode === 'tip-radius';
+  const probeGradient = new Float64Array(3);
+  const chain = new Float64Array(3 * nFree);
+  const chainLogG = new Float64Array(nFree);
+  const dLogArea = new Float64Array(nFree);
+  let lastArea = Number.NaN;
+  const problem = logParameterProblem(n, nFree, currentA, weights, (q, current, gradient) => {
+    const { tip, sample, width, logConductance } = layout.physical(q);
+    const junction = { tipWorkFunctionEV: tip, sampleWorkFunctionEV: sample, gapM: width, fermiEnergyEV };
+    layout.derivatives(q, chain, chainLogG);
+    const mean = (tip + sample) / 2;
+    let area: number;
+    if (freeArea) {
+      // A = G(0)/g, g = J(δV)/δV per area ⇒ ∂ln A = ∂ln G(0) − Σ ∂ln g/∂x_j ∂x_j.
+      probeSweep(junction, probeCurrent, probeGradient);
+      const probe = probeCurrent[0];
+      area = Math.exp(logConductance) / (probe / ZERO_BIAS_PROBE_V);
+      for (let k = 0; k < nFree; k++) {
+        let dLogG = 0;
+        for (let j = 0; j < 3; j++) dLogG += (probeGradient[j] / probe) * chain[3 * k + j];
+        dLogArea[k] = chainLogG[k] - dLogG;
+      }
+    } else {
+      area = areaFor(input.area, mean, Number.NaN);
+      // A = πR/κ(φ̄) ⇒ ∂ln A/∂x = −(∂φ̄/∂x)/(2φ̄).
+      for (let k = 0; k < nFree; k++) dLogArea[k] = tied ? -(chain[3 * k] + chain[3 * k + 1]) / (4 * mean) : 0;
+    }
+    lastArea = area;
+    sweep(junction, sweepCurrent, sweepGradient);
+    for (let i = 0; i < n; i++) {
+      const value = area * sweepCurrent[i];
+      current[i] = value;
+      const row = i * nFree;
+      const g0 = sweepGradient[3 * i];
+      const g1 = sweepGradient[3 * i + 1];
+      const g2 = sweepGradient[3 * i + 2];
+      for (let k = 0; k < nFree; k++) {
+        gradient[row + k] = area * (g0 * chain[3 * k] + g1 * chain[3 * k + 1] + g2 * chain[3 * k + 2]) + value * dLogArea[k];
+      }
+    }
+  });
+  const mean = clampBarrier((start.tipWorkFunctionEV + start.sampleWorkFunctionEV) / 2);
+  const asymmetry = start.sampleWorkFunctionEV - start.tipWorkFunctionEV;
+  const width = Math.min(MAX_WIDTH_M * 0.5, Math.max(MIN_WIDTH_M * 2, start.widthM));
+  let startQ: number[];
+  let lower: number[];
+  let upper: number[];
+  const logBarrier = [Math.log(MIN_BARRIER_EV), Math.log(MAX_BARRIER_EV)];
+  if (symmetric) {
+    startQ = freeArea ? [Math.log(mean), Math.log(width / Math.sqrt(mean)), Math.log(zeroBiasConductanceS)] : [Math.log(mean), Math.log(width)];
+    lower = freeArea ? [logBarrier[0], Math.log(MIN_WIDTH_M / Math.sqrt(MAX_BARRIER_EV)), -80] : [logBarrier[0], Math.log(MIN_WIDTH_M)];
+    upper = freeArea ? [logBarrier[1], Math.log(MAX_WIDTH_M / Math.sqrt(MIN_BARRIER_EV)), 0] : [logBarrier[1], Math.log(MAX_WIDTH_M)];
+  } else if (freeArea && input.tipWorkFunctionEV === undefined) {
+    startQ = [Math.log(mean), Math.max(-mean, Math.min(mean, asymmetry)), Math.log(width / Math.sqrt(mean)), Math.log(zeroBiasConductanceS)];
+    lower = [logBarrier[0], -MAX_BARRIER_EV, Math.log(MIN_WIDTH_M / Math.sqrt(MAX_BARRIER_EV)), -80];
+    upper = [logBarrier[1], MAX_BARRIER_EV, Math.log(MAX_WIDTH_M / Math.sqrt(MIN_BARRIER_EV)), 0];
+  } else if (freeArea) {
+    const fixedTip = input.tipWorkFunctionEV as number;
+    const startMean = Math.max(mean, 0.6 * fixedTip);
+    startQ = [Math.log(startMean), Math.log(width / Math.sqrt(startMean)), Math.log(zeroBiasConductanceS)];
+    lower = [Math.log(fixedTip / 2 + MIN_BARRIER_EV), Math.log(MIN_WIDTH_M / Math.sqrt(MAX_BARRIER_EV)), -80];
+    upper = [logBarrier[1], Math.log(MAX_WIDTH_M / Math.sqrt(MIN_BARRIER_EV)), 0];
+  } else {
+    startQ = [
+      ...(input.tipWorkFunctionEV === undefined ? [Math.log(clampBarrier(start.tipWorkFunctionEV))] : []),
+      Math.log(clampBarrier(start.sampleWorkFunctionEV)),
+      Math.log(width),
+    ];
+    lower = [...(input.tipWorkFunctionEV === undefined ? [logBarrier[0]] : []), logBarrier[0], Math.log(MIN_WIDTH_M)];
+    upper = [...(input.tipWorkFunctionEV === undefined ? [logBarrier[1]] : []), logBarrier[1], Math.log(MAX_WIDTH_M)];
+  }
+  for (let k = 0; k < nFree; k++) startQ[k] = Math.min(upper[k] - 1e-9, Math.max(lower[k] + 1e-9, startQ[k]));
+  const result = createSolver(nFree, n).solve(problem, startQ, { ...SOLVER_OPTIONS, lower, upper, parameterNames: layout.names });
+  problem.residuals(result.params, new Float64Array(n));
+  const best = layout.physical(result.params);
+  const area = lastArea;
+  const estimate = describe(model, result, problem.current, layout.names);
+  // Covariance of the physical quantities by linear propagation, Σ_x = M Σ_q Mᵀ, with M the
+  // derivatives of x = (φ1, φ2, d, ln A) with respect to q.
+  layout.derivatives(result.params, chain, chainLogG);
+  const rows = 4;
+  const jacobianRows = new Float64Array(rows * nFree);
+  for (let k = 0; k < nFree; k++) {
+    jacobianRows[0 * nFree + k] = chain[3 * k];
+    jacobianRows[1 * nFree + k] = chain[3 * k + 1];
+    jacobianRows[2 * nFree + k] = chain[3 * k + 2];
+    jacobianRows[3 * nFree + k] = dLogArea[k];
+  }
+  const cov = (a: number, b: number) => {
+    let sum = 0;
+    for (let k = 0; k < nFree; k++) for (let l = 0; l < nFree; l++) sum += jacobianRows[a * nFree + k] * result.covariance[k * nFree + l] * jacobianRows[b * nFree + l];
+    return sum;
+  };
+  const varTip = cov(0, 0);
+  const varSample = cov(1, 1);
+  const covTipSample = cov(0, 1);
+  return {
+    ...estimate,
+    tipWorkFunctionEV: best.tip,
+    tipWorkFunctionErrorEV: Math.sqrt(varTip),
+    sampleWorkFunctionEV: best.sample,
+    sampleWorkFunctionErrorEV: Math.sqrt(varSample),
+    meanBarrierEV: (best.tip + best.sample) / 2,
+    meanBarrierErrorEV: Math.sqrt(Math.max(0, varTip + varSample + 2 * covTipSample)) / 2,
+    asymmetryEV: best.sample - best.tip,
+    asymmetryErrorEV: Math.sqrt(Math.max(0, varTip + varSample - 2 * covTipSample)),
+    widthM: best.width,
+    widthErrorM: Math.sqrt(cov(2, 2)),
+    areaM2: area,
+    areaErrorM2: area * Math.sqrt(cov(3, 3)),
+  };
+}
+
+function describe(model: SpectrumModelName, result: SolverResult, fitted: Float64Array, names: string[]): BarrierEstimate {
+  return {
+    ...emptyEstimate(model, fitted.length),
+    status: result.status,
+    message: result.message,
+    converged: result.converged,
+    uncertaintiesOk: result.uncertaintiesOk,
+    uncertaintyNote: result.uncertaintyNote,
+    correlationNames: names,
+    correlation: Array.from(result.correlation),
+    chiSquare: result.chiSquare,
+    reducedChi2: result.reducedChiSquare,
+    aic: result.aic,
+    bic: result.bic,
+    nPoints: result.nPoints,
+    nFree: result.nFree,
+    iterations: result.iterations,
+    evaluations: result.nEvaluations,
+    fittedCurrentA: Float64Array.from(fitted),
+  };
+}
+
+/**
+ * Fowler–Nordheim regime: at the largest |V| the barrier seen from the emitter's Fermi level
+ * reaches zero inside the gap (V > 0: φ2 − eV < 0; V < 0: φ1 − e|V| < 0), physics.md §4, §8.
+ */
+function fowlerNordheimCheck(biasV: Float64Array, estimate: BarrierEstimate): SpectrumFit['fowlerNordheim'] {
+  let maxPositive = 0;
+  let maxNegative = 0;
+  for (let i = 0; i < biasV.length; i++) {
+    maxPositive = Math.max(maxPositive, biasV[i]);
+    maxNegative = Math.min(maxNegative, biasV[i]);
+  }
+  const positiveOnset = estimate.sampleWorkFunctionEV;
+  const negativeOnset = -estimate.tipWorkFunctionEV;
+  const positive = maxPositive > positiveOnset;
+  const negative = maxNegative < negativeOnset;
+  if (!Number.isFinite(positiveOnset) || !Number.isFinite(negativeOnset)) {
+    return { reached: false, onsetBiasV: Number.NaN, message: 'no barrier estimate' };
+  }
+  if (positive || negative) {
+    const onset = positive ? positiveOnset : negativeOnset;
+    return { reached: true, onsetBiasV: onset, message: `Fowler–Nordheim regime beyond ${onset.toFixed(2)} V: the barrier has a turning point inside the gap` };
+  }
+  return { reached: false, onsetBiasV: positiveOnset, message: 'direct tunnelling over the whole sweep (no turning point inside the barrier)' };
+}
+
+/** κ at the mean barrier, for the area of a tip radius (exported for the joint fit). */
+export function decayConstantAtMeanPerM(meanBarrierEV: number): number {
+  return 0.5 * WKB_DECAY_PER_M_PER_SQRT_EV * Math.sqrt(meanBarrierEV);
+}
