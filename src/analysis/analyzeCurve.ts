@@ -364,6 +364,7 @@ function analyzeSpectrum(curve: CurveInput, settings: AnalysisSettings): CurveRe
     metrics,
     noiseKnown: settings.noiseRelative !== null && settings.noiseFloorA !== null,
     parameters: chosen.model === 'bdr' ? undefined : parameters,
+    uncertaintyNotReliable: chosen.model !== 'bdr' && chosen.converged && !chosen.uncertaintiesOk && chosen.uncertaintyNote ? chosen.uncertaintyNote : undefined,
     barrierEV: [chosen.tipWorkFunctionEV, chosen.sampleWorkFunctionEV],
     barrierLabels: ['Tip barrier φ1', 'Sample barrier φ2'],
     widthNm: chosen.widthM * 1e9,

@@ -52,6 +52,8 @@ export interface FitSummaryForFlags {
   readonly noiseKnown?: boolean;
   /** The fitted parameters (value, stderr, correlations). */
   readonly parameters?: readonly ParameterForFlags[];
+  /** Why the fit's own uncertainties are unreliable (raises degenerate with this clause), if they are. */
+  readonly uncertaintyNotReliable?: string;
   /** Barrier height(s) in eV for the plausibility check (I(z): the apparent barrier; I(V): φ1, φ2). */
   readonly barrierEV?: number | readonly number[];
   /** Labels of barrierEV entries for the reasons; default 'Apparent barrier' (iz) or 'Barrier 1', … (iv). */
@@ -250,7 +252,8 @@ const FLAG_RULES: readonly FlagRule[] = [
   },
   {
     code: 'degenerate',
-    check: ({ parameters }) => {
+    check: ({ parameters, uncertaintyNotReliable }) => {
+      if (uncertaintyNotReliable) return { reason: `The error bars cannot be trusted: ${uncertaintyNotReliable}.` };
       if (!parameters || parameters.length === 0) return null;
       const { names, correlation, standardErrors } = degeneracyInput(parameters);
       if (names.length === 0) return null;

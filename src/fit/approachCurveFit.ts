@@ -118,6 +118,7 @@ export function fitApproachCurve(input: ApproachCurveInput): ApproachCurveFit {
   const fitted = new Float64Array(n);
   const weights = new Float64Array(n);
   const scratch = new Float64Array(n);
+  const debiased = new Float64Array(n);
 
   // 1–3: window, invalid values, saturation.
   let maxCurrent = 0;
@@ -189,10 +190,14 @@ export function fitApproachCurve(input: ApproachCurveInput): ApproachCurveFit {
     const relativeSquared = relativeNoise * relativeNoise;
     for (let i = 0; i < n; i++) {
       const predictedLn = line.intercept + line.slope * zM[i];
-      weights[i] = 1 / (relativeSquared + floorSquared * Math.exp(-2 * predictedLn));
+      const floorRatioSquared = floorSquared * Math.exp(-2 * predictedLn);
+      weights[i] = 1 / (relativeSquared + floorRatioSquared);
+      // Additive noise biases ln I low by (σ_floor/Î)²/2 (second-order delta method), which grows
+      // towards the floor and would steepen the slope: remove it from the values fitted.
+      debiased[i] = lnCurrent[i] + 0.5 * floorRatioSquared;
       mask[i] = exclusion[i] === 0 ? 1 : 0;
     }
-    const refit = weightedLine(zM, lnCurrent, weights, mask);
+    const refit = weightedLine(zM, debiased, weights, mask);
     if (!(refit.count >= MIN_POINTS && refit.slope < 0)) return failed(input, order, zM, lnCurrent, exclusion, refit, saturationCount);
     line = refit;
   }

@@ -22,10 +22,17 @@ export interface JointFitInput {
 
 export interface UncertaintyNarrowing {
   quantity: 'tipWorkFunctionEV' | 'sampleWorkFunctionEV' | 'meanBarrierEV' | 'asymmetryEV' | 'widthM' | 'areaM2';
+  /** Error bars of the lone I(V) fit and of the joint fit, in the quantity's unit. */
   separate: number;
   joint: number;
-  /** separate / joint: how many times narrower the joint error bar is. */
+  /**
+   * How many times narrower the joint error bar is, on relative errors (σ/|value| of each fit, so
+   * two fits at different values compare fairly; for the asymmetry, which may be near zero, on
+   * absolute errors). NaN when the lone fit has no finite error or lies more than 3 joint σ from
+   * the joint value (the two do not describe the same optimum; see `note`).
+   */
   factor: number;
+  note: string;
 }
 
 export interface JointFit {
@@ -166,20 +173,38 @@ export function jointFit(input: JointFitInput): JointFit {
     fittedCurrentA: fitted,
   };
   const separate = spectrum.fit.best;
-  const pairs: [UncertaintyNarrowing['quantity'], number, number][] = [
-    ['tipWorkFunctionEV', separate.tipWorkFunctionErrorEV, estimate.tipWorkFunctionErrorEV],
-    ['sampleWorkFunctionEV', separate.sampleWorkFunctionErrorEV, estimate.sampleWorkFunctionErrorEV],
-    ['meanBarrierEV', separate.meanBarrierErrorEV, estimate.meanBarrierErrorEV],
-    ['asymmetryEV', separate.asymmetryErrorEV, estimate.asymmetryErrorEV],
-    ['widthM', separate.widthErrorM, estimate.widthErrorM],
-    ['areaM2', separate.areaErrorM2, estimate.areaErrorM2],
+  const pairs: [UncertaintyNarrowing['quantity'], number, number, number, number][] = [
+    ['tipWorkFunctionEV', separate.tipWorkFunctionEV, separate.tipWorkFunctionErrorEV, estimate.tipWorkFunctionEV, estimate.tipWorkFunctionErrorEV],
+    ['sampleWorkFunctionEV', separate.sampleWorkFunctionEV, separate.sampleWorkFunctionErrorEV, estimate.sampleWorkFunctionEV, estimate.sampleWorkFunctionErrorEV],
+    ['meanBarrierEV', separate.meanBarrierEV, separate.meanBarrierErrorEV, estimate.meanBarrierEV, estimate.meanBarrierErrorEV],
+    ['asymmetryEV', separate.asymmetryEV, separate.asymmetryErrorEV, estimate.asymmetryEV, estimate.asymmetryErrorEV],
+    ['widthM', separate.widthM, separate.widthErrorM, estimate.widthM, estimate.widthErrorM],
+    ['areaM2', separate.areaM2, separate.areaErrorM2, estimate.areaM2, estimate.areaErrorM2],
   ];
   return {
     estimate,
     approachGapM: value(4),
     approachGapErrorM: value(4) * Math.sqrt(logCov(4, 4)),
-    narrowing: pairs.map(([quantity, a, b]) => ({ quantity, separate: a, joint: b, factor: a / b })),
+    narrowing: pairs.map(([quantity, lone, loneError, joint, jointError]) => narrowingOf(quantity, lone, loneError, joint, jointError, separate.uncertaintiesOk)),
   };
+}
+
+function narrowingOf(
+  quantity: UncertaintyNarrowing['quantity'],
+  lone: number,
+  loneError: number,
+  joint: number,
+  jointError: number,
+  loneTrusted: boolean,
+): UncertaintyNarrowing {
+  const base = { quantity, separate: loneError, joint: jointError };
+  if (!(Number.isFinite(loneError) && loneError > 0)) return { ...base, factor: Number.NaN, note: 'the lone I(V) fit gives no finite error bar (a parameter on a bound)' };
+  if (Math.abs(lone - joint) > 3 * jointError) {
+    return { ...base, factor: Number.NaN, note: 'the lone I(V) optimum lies more than 3σ from the joint one: its error bar describes another point of the valley' };
+  }
+  const relative = quantity !== 'asymmetryEV';
+  const factor = relative ? loneError / Math.abs(lone) / (jointError / Math.abs(joint)) : loneError / jointError;
+  return { ...base, factor, note: loneTrusted ? '' : 'the lone I(V) error bar is itself an underestimate (see its uncertainty note), so the true narrowing is larger' };
 }
 
 /** Start: φ̄ from the I(z) apparent barrier, Δφ and d/√φ̄ from the I(V) fit, A and s_c by matching amplitudes. */

@@ -2,7 +2,7 @@
  * Ordinary least-squares polynomial y = Σ_{k=0}^{degree} c_k x^k, by the normal equations on x
  * scaled to [−1, 1] (well conditioned for the low degrees used here), with the coefficient
  * covariance s²(XᵀX)⁻¹. Source: Draper & Smith, Applied Regression Analysis (1998), ch. 5 [from memory].
- * @example polynomialFit(new Float64Array([0, 1, 2]), new Float64Array([1, 2, 5]), 2).coefficients // [1, 0, 1]
+ * @example polynomialFit(new Float64Array([0, 1, 2, 3]), new Float64Array([1, 2, 5, 10]), 2).coefficients // [1, 0, 1]
  */
 export interface PolynomialFit {
   /** c_0 … c_degree in the original x units. */

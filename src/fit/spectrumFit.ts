@@ -183,7 +183,10 @@ function bdrEstimate(input: SpectrumInput, coefficients: Float64Array, weights: 
   let widthM = Number.NaN;
   let asymmetryEV = Number.NaN;
   let areaM2 = Number.NaN;
-  let message = 'BDR parabola from the zero-bias conductance and its curvature';
+  let message =
+    input.area.mode === 'free'
+      ? `BDR parabola from the conductance curvature, with the mean barrier ASSUMED at ${START_MEAN_BARRIER_EV} eV (a lone I(V) with a free area cannot fix it); width and asymmetry follow from that assumption`
+      : 'BDR parabola from the zero-bias conductance per area (area from the geometry settings) and its curvature';
   let ok = g0 > 0 && quadraticPerV2 > 0;
   if (ok) {
     for (let iteration = 0; iteration < (input.area.mode === 'free' ? 1 : 8); iteration++) {
@@ -217,7 +220,7 @@ function bdrEstimate(input: SpectrumInput, coefficients: Float64Array, weights: 
   const nFree = 3;
   return {
     ...emptyEstimate('bdr', n),
-    status: ok ? 'closed-form' : 'failed',
+    status: ok ? (input.area.mode === 'free' ? 'closed-form-assumed-barrier' : 'closed-form') : 'failed',
     message,
     converged: ok,
     uncertaintiesOk: false,
@@ -547,10 +550,15 @@ function fitBarrierModel(
   }
   for (let k = 0; k < nFree; k++) startQ[k] = Math.min(upper[k] - 1e-9, Math.max(lower[k] + 1e-9, startQ[k]));
   const result = createSolver(nFree, n).solve(problem, startQ, { ...SOLVER_OPTIONS, lower, upper, parameterNames: layout.names });
+  const profileNote = freeArea && result.converged && result.uncertaintiesOk ? profileCheck(problem, result, lower, upper) : '';
   problem.residuals(result.params, new Float64Array(n));
   const best = layout.physical(result.params);
   const area = lastArea;
   const estimate = describe(model, result, problem.current, layout.names);
+  if (profileNote) {
+    estimate.uncertaintiesOk = false;
+    estimate.uncertaintyNote = profileNote;
+  }
   // Covariance of the physical quantities by linear propagation, Σ_x = M Σ_q Mᵀ, with M the
   // derivatives of x = (φ1, φ2, d, ln A) with respect to q.
   layout.derivatives(result.params, chain, chainLogG);
@@ -585,6 +593,52 @@ function fitBarrierModel(
     areaM2: area,
     areaErrorM2: area * Math.sqrt(cov(3, 3)),
   };
+}
+
+/**
+ * Is the linear error bar of the barrier height (q[0]) honest? Profile likelihood at q0 ± 3σ: hold q0
+ * there, refit the rest, and compare the rise of χ² with the 9·s² a quadratic valley gives. A rise
+ * well below that means the χ² valley is long and flat (a lone I(V) with a free area: φ, d and A
+ * trade off), so the true interval is much wider than the linear one. Returns '' when the check
+ * passes, else the reason. Source: profile likelihood intervals (e.g. D. J. Venzon and S. H.
+ * Moolgavkar, Appl. Statist. 37, 87 (1988) [from memory]).
+ */
+function profileCheck(problem: LeastSquaresProblem, result: SolverResult, lower: number[], upper: number[]): string {
+  const nFree = problem.nParams;
+  const n = problem.nResiduals;
+  const sigma = Math.sqrt(result.covariance[0]);
+  if (!(sigma > 0) || nFree < 2) return '';
+  const scale = result.reducedChiSquare;
+  const reduced = createSolver(nFree - 1, n);
+  const full = new Float64Array(nFree);
+  const fullJacobian = new Float64Array(n * nFree);
+  let smallestRise = Infinity;
+  for (const sign of [-1, 1]) {
+    const held = Math.min(upper[0], Math.max(lower[0], result.params[0] + 3 * sign * sigma));
+    const sub: LeastSquaresProblem = {
+      nParams: nFree - 1,
+      nResiduals: n,
+      residuals(q, out) {
+        full[0] = held;
+        for (let k = 1; k < nFree; k++) full[k] = q[k - 1];
+        problem.residuals(full, out);
+      },
+      jacobian(q, out) {
+        full[0] = held;
+        for (let k = 1; k < nFree; k++) full[k] = q[k - 1];
+        problem.jacobian!(full, fullJacobian);
+        for (let i = 0; i < n; i++) for (let k = 1; k < nFree; k++) out[i * (nFree - 1) + k - 1] = fullJacobian[i * nFree + k];
+      },
+    };
+    const start = Array.from(result.params.subarray(1));
+    const refit = reduced.solve(sub, start, { ...SOLVER_OPTIONS, maxIterations: 60, lower: lower.slice(1), upper: upper.slice(1) });
+    smallestRise = Math.min(smallestRise, (refit.chiSquare - result.chiSquare) / scale);
+  }
+  if (smallestRise >= 3) return '';
+  return (
+    `holding the barrier height 3σ from its best value raises χ² by only ${smallestRise.toFixed(2)}·s² instead of 9·s², ` +
+    'so the linear error bar understates it (a lone I(V) with a free area trades barrier, width and area); tie the area to the tip radius or fit an I(z) at the same site jointly'
+  );
 }
 
 function describe(model: SpectrumModelName, result: SolverResult, fitted: Float64Array, names: string[]): BarrierEstimate {

@@ -2,19 +2,21 @@
  * Storage for one numeric column while a file streams in: SI values in one contiguous Float64Array,
  * so a curve that spans a whole column can be a view of it instead of a copy. A column that holds a
  * single repeated value (a fixed bias) keeps just that value until another one arrives.
- * Capacity comes from an estimate of the row count when the file size is known (no copying then);
- * otherwise it grows by half each time (one copy of the column per growth).
+ * Capacity comes from an estimate of the row count when the file size is known (usually no copy);
+ * past the estimate it grows by a quarter, without one by half (one copy of the column per growth).
  */
 export class ColumnValues {
   #values: Float64Array | null = null;
   #length = 0;
   #capacity: number;
+  #growth: number;
   /** While #values is null, every value so far equals #constant (NaN counts as equal to NaN). */
   #constant = 0;
 
   /** @param expectedRows estimate of the number of rows (0 when unknown) */
   constructor(expectedRows: number) {
     this.#capacity = Math.max(1024, Math.ceil(expectedRows));
+    this.#growth = expectedRows > 1024 ? 1.25 : 1.5;
   }
 
   /** Number of values pushed. */
@@ -46,7 +48,7 @@ export class ColumnValues {
   }
 
   #grow(): void {
-    const grown = new Float64Array(Math.ceil(this.#values!.length * 1.5) + 1024);
+    const grown = new Float64Array(Math.ceil(this.#values!.length * this.#growth) + 1024);
     grown.set(this.#values!);
     this.#values = grown;
   }

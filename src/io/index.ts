@@ -1,6 +1,11 @@
 /**
- * io: reading instrument text exports into curves (pure, for Node and web workers), remembering
- * mapping answers, keeping raw text. Other layers import from here only.
+ * io: reading instrument text exports into curves. Pure and usable from Node and from a web worker:
+ * importText / importChunks / createImporter take text (whole, as chunks, or pushed piece by piece)
+ * and a file name, and never touch the file system. Mapping answers are remembered with
+ * MappingMemory; raw text is kept in IndexedDB with RawTextStore.
+ * The Node-only reader of files and folders (src/io/readFileNode.ts) is deliberately not exported
+ * here, so that this surface stays free of node: imports for the browser bundle; the CLI imports it
+ * directly.
  */
 export type {
   ColumnRole,
@@ -22,13 +27,21 @@ export type {
   Segment,
 } from './types.ts';
 export { COLUMN_ROLES } from './types.ts';
+
+// Importing
 export { importText, importChunks, type TextChunks } from './importText.ts';
 export { importFiles, failedImport, type ImportInput } from './importFiles.ts';
 export { createImporter, type StreamingImporter } from './createImporter.ts';
+
+// Mapping answers
 export { MappingMemory, type MappingMemoryJSON } from './mappingMemory.ts';
 export { MappingError, headerSignature } from './planColumns.ts';
+
+// Raw text in the browser
 export { RawTextStore, type RawTextRecord } from './rawStore.ts';
-export { parseUnit, parseUnitAs, type ParsedUnit, type UnitDimension } from './parseUnit.ts';
+
+// Building blocks a dialog or an exporter may reuse
+export { parseUnit, parseUnitAs, SI_UNIT_OF, type ParsedUnit, type UnitDimension } from './parseUnit.ts';
 export { parseHeaderCell, type HeaderCell } from './parseHeaderCell.ts';
 export { KNOWN_METADATA_KEYS } from './readMetadata.ts';
 export { delimiterName } from './splitCells.ts';

@@ -196,6 +196,7 @@ describe('fixtures: good files import without problems', () => {
   });
 
   it('direction-column.csv: approach/retract words in a direction column', async () => {
+    // common practice, no source: 'approach' and 'retract' name the two legs of an I(z) sweep
     const file = await load('direction-column.csv');
     expect(roles(file)).toEqual(['segment', 'distance', 'current']);
     expect(file.problems).toEqual([]);
@@ -208,6 +209,7 @@ describe('fixtures: good files import without problems', () => {
   });
 
   it('sweep-reversal.csv: the gap shrinks then grows → approach then retract', async () => {
+    // common practice, no source: one table holds both legs; the leg where the gap shrinks is the approach
     const file = await load('sweep-reversal.csv');
     expect(file.problems).toEqual([]);
     expect(file.curves.map((c) => [c.segment, c.index, c.x.length, c.firstLine])).toEqual([
@@ -230,6 +232,7 @@ describe('fixtures: good files import without problems', () => {
   });
 
   it('messy.txt: metadata, ";" with decimal commas, pm and pA, CRLF, an approach/retract pair — no problems', async () => {
+    // common practice, no source: a decimal comma goes with ';' or tab delimiters
     const file = await load('messy.txt');
     expect(file.dialect).toMatchObject({ delimiter: ';', decimalMark: ',', headerLine: 9, dataStartLine: 10, lineEnding: 'crlf' });
     expect(file.mappingSource).toBe('detected');
@@ -250,6 +253,7 @@ describe('fixtures: good files import without problems', () => {
   });
 
   it('blank-line-blocks.dat: blocks separated by a blank line and a comment → two curves', async () => {
+    // common practice (plotting-program style data blocks), no source: a blank line ends a curve
     const file = await load('blank-line-blocks.dat');
     expect(file.columns.map((c) => [c.name, c.unit])).toEqual([
       ['z', 'nm'],
