@@ -35,6 +35,8 @@ export interface CurveInput {
   fixedGapM?: number;
   position?: { xM: number; yM: number };
   metadata?: Record<string, { raw: string; value?: number; unit?: string }>;
+  /** Manual fit window of an I(z) curve, m, in calibrated z (x × piezoCalibration), inclusive; points outside are left out of the fit. */
+  windowM?: { fromM: number; toM: number };
 }
 
 /**
@@ -178,6 +180,7 @@ function analyzeApproach(curve: CurveInput, settings: AnalysisSettings): CurveRe
     noise: { relative: settings.noiseRelative ?? undefined, floorA: settings.noiseFloorA ?? undefined },
     saturationLimitA: settings.saturationLimitA ?? undefined,
     setpointCurrentA: setpoint !== undefined && setpoint !== 0 ? setpoint : undefined,
+    ...(curve.windowM ? { windowM: curve.windowM } : {}),
   });
   record.message = fit.message;
   const excluded: number[] = [];

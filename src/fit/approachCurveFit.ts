@@ -36,7 +36,10 @@ export interface ApproachCurveInput {
   windowM?: { fromM: number; toM: number };
   /** Setpoint current, A: the gap is reported at this current (else at the largest fitted current). */
   setpointCurrentA?: number;
-  /** Points per sliding window of the local φ_ap(z) profile (default: n/8 clamped to 8…32). */
+  /**
+   * Points per sliding window of the local φ_ap(z) profile; the profile is computed only when this
+   * is given (0 < n), e.g. for the curve on screen. See also localBarrierProfile.
+   */
   localWindowPoints?: number;
 }
 
@@ -86,7 +89,7 @@ export interface ApproachCurveFit {
   reducedChi2: number;
   rmsResidual: number;
   durbinWatson: number;
-  /** Local φ_ap(z) from a sliding window of used points. */
+  /** Local φ_ap(z) from a sliding window of used points (empty unless localWindowPoints was given). */
   localProfile: { zM: Float64Array; barrierEV: Float64Array; barrierErrorEV: Float64Array };
 }
 
@@ -95,6 +98,51 @@ const FLOOR_SIGNAL_RATIO = 3;
 const TAIL_FRACTION_OF_MAX = 0.02;
 const MIN_POINTS = 4;
 const MAD_TO_SIGMA = 1.482602218505602; // 1/Φ⁻¹(3/4), normal consistency of the MAD [textbook]
+
+// Work arrays shared by successive fits (never returned), grown as needed: a batch of fits then
+// allocates only its outputs.
+let workCapacity = 0;
+let workSigned = new Float64Array(0);
+let workScratch = new Float64Array(0);
+let workDebiased = new Float64Array(0);
+let workExp = new Float64Array(0);
+let workMask = new Uint8Array(0);
+function reserveWork(n: number): void {
+  if (n <= workCapacity) return;
+  workCapacity = Math.max(n, 2 * workCapacity);
+  workSigned = new Float64Array(workCapacity);
+  workScratch = new Float64Array(workCapacity);
+  workDebiased = new Float64Array(workCapacity);
+  workExp = new Float64Array(workCapacity);
+  workMask = new Uint8Array(workCapacity);
+}
+
+/** Spacing of z when it is uniform (to 1e-9 relative), else NaN: then e^{a+bz} follows by recurrence. */
+function uniformStep(zM: Float64Array): number {
+  const n = zM.length;
+  if (n < 2) return Number.NaN;
+  const step = (zM[n - 1] - zM[0]) / (n - 1);
+  const tolerance = 1e-9 * Math.abs(step);
+  for (let i = 1; i < n; i++) if (Math.abs(zM[i] - zM[0] - i * step) > tolerance * i + 1e-30) return Number.NaN;
+  return step;
+}
+
+/** out[i] = exp(intercept + slope·z_i), by one exp and a recurrence when z is uniform. */
+function fillExponential(intercept: number, slope: number, zM: Float64Array, step: number, out: Float64Array): void {
+  const n = zM.length;
+  if (Number.isNaN(step)) {
+    for (let i = 0; i < n; i++) out[i] = Math.exp(intercept + slope * zM[i]);
+    return;
+  }
+  const ratio = Math.exp(slope * step);
+  let value = Math.exp(intercept + slope * zM[0]);
+  for (let i = 0; i < n; i++) {
+    // Re-anchor every 64 points so rounding cannot build up.
+    if ((i & 63) === 0) value = Math.exp(intercept + slope * zM[i]);
+    out[i] = value;
+    value *= ratio;
+  }
+}
 
 /**
  * Fit one approach curve (see ApproachCurveInput).
@@ -107,7 +155,8 @@ export function fitApproachCurve(input: ApproachCurveInput): ApproachCurveFit {
   }
   const order = ascendingOrder(input.zM);
   const zM = new Float64Array(n);
-  const signedCurrent = new Float64Array(n);
+  reserveWork(n);
+  const signedCurrent = workSigned;
   const sign = input.biasV < 0 ? -1 : 1;
   for (let i = 0; i < n; i++) {
     zM[i] = input.zM[order[i]];
@@ -117,8 +166,11 @@ export function fitApproachCurve(input: ApproachCurveInput): ApproachCurveFit {
   const lnCurrent = new Float64Array(n);
   const fitted = new Float64Array(n);
   const weights = new Float64Array(n);
-  const scratch = new Float64Array(n);
-  const debiased = new Float64Array(n);
+  const scratch = workScratch;
+  const debiased = workDebiased;
+  const expLine = workExp;
+  const mask = workMask;
+  const step = uniformStep(zM);
 
   // 1–3: window, invalid values, saturation.
   let maxCurrent = 0;
@@ -140,7 +192,6 @@ export function fitApproachCurve(input: ApproachCurveInput): ApproachCurveFit {
   for (let i = 0; i < n; i++) if (exclusion[i] === 0 && signedCurrent[i] > topCurrent) topCurrent = signedCurrent[i];
 
   // Initial unweighted line through the top two decades.
-  const mask = new Uint8Array(n);
   let initialCount = 0;
   for (let i = 0; i < n; i++) {
     mask[i] = exclusion[i] === 0 && signedCurrent[i] >= topCurrent / 100 ? 1 : 0;
@@ -155,10 +206,11 @@ export function fitApproachCurve(input: ApproachCurveInput): ApproachCurveFit {
   if (!Number.isFinite(floorA)) {
     let tail = 0;
     const tailLn = Math.log(TAIL_FRACTION_OF_MAX * topCurrent);
+    fillExponential(line.intercept, line.slope, zM, step, expLine);
     for (let i = 0; i < n; i++) {
       if (exclusion[i] !== 0) continue;
       const predictedLn = line.intercept + line.slope * zM[i];
-      if (predictedLn < tailLn) scratch[tail++] = Math.abs(signedCurrent[i] - Math.exp(predictedLn));
+      if (predictedLn < tailLn) scratch[tail++] = Math.abs(signedCurrent[i] - expLine[i]);
     }
     floorA = tail >= 5 ? MAD_TO_SIGMA * selectMedian(scratch, tail) : 0;
   }
@@ -188,9 +240,10 @@ export function fitApproachCurve(input: ApproachCurveInput): ApproachCurveFit {
     }
     const floorSquared = floorA * floorA;
     const relativeSquared = relativeNoise * relativeNoise;
+    // expLine = 1/Î² = e^{−2(a + bz)}
+    if (floorSquared > 0) fillExponential(-2 * line.intercept, -2 * line.slope, zM, step, expLine);
     for (let i = 0; i < n; i++) {
-      const predictedLn = line.intercept + line.slope * zM[i];
-      const floorRatioSquared = floorSquared * Math.exp(-2 * predictedLn);
+      const floorRatioSquared = floorSquared > 0 ? floorSquared * expLine[i] : 0;
       weights[i] = 1 / (relativeSquared + floorRatioSquared);
       // Additive noise biases ln I low by (σ_floor/Î)²/2 (second-order delta method), which grows
       // towards the floor and would steepen the slope: remove it from the values fitted.
@@ -314,7 +367,10 @@ function summarise(input: ApproachCurveInput, s: FitState): ApproachCurveFit {
     reducedChi2: line.weightedResidualSumOfSquares / Math.max(1, used - 2),
     rmsResidual: Math.sqrt(residualSS / used),
     durbinWatson: dwNumerator / dwDenominator,
-    localProfile: localBarrierProfile(zM, lnCurrent, weights, exclusion, input.localWindowPoints ?? Math.min(32, Math.max(8, Math.round(used / 8)))),
+    localProfile:
+      input.localWindowPoints !== undefined && input.localWindowPoints > 0
+        ? localBarrierProfile(zM, lnCurrent, weights, exclusion, input.localWindowPoints)
+        : { zM: new Float64Array(0), barrierEV: new Float64Array(0), barrierErrorEV: new Float64Array(0) },
   };
 }
 

@@ -34,6 +34,7 @@ export function weightedLine(
   from = 0,
   to = x.length,
 ): LineFit {
+  // Two passes: weighted means, then sums about them (as accurate as the textbook three passes).
   let sumW = 0;
   let sumWX = 0;
   let sumWY = 0;
@@ -50,22 +51,20 @@ export function weightedLine(
   const meanY = sumWY / sumW;
   let sxx = 0;
   let sxy = 0;
+  let syy = 0;
   for (let i = from; i < to; i++) {
     if (mask !== null && mask[i] === 0) continue;
     const w = weights === null ? 1 : weights[i];
     const dx = x[i] - meanX;
+    const dy = y[i] - meanY;
     sxx += w * dx * dx;
-    sxy += w * dx * (y[i] - meanY);
+    sxy += w * dx * dy;
+    syy += w * dy * dy;
   }
   const slope = sxy / sxx;
   const intercept = meanY - slope * meanX;
-  let rss = 0;
-  for (let i = from; i < to; i++) {
-    if (mask !== null && mask[i] === 0) continue;
-    const w = weights === null ? 1 : weights[i];
-    const r = y[i] - intercept - slope * x[i];
-    rss += w * r * r;
-  }
+  // Σw r² = Syy − slope·Sxy about the weighted means.
+  const rss = Math.max(0, syy - slope * sxy);
   const s2 = count > 2 ? rss / (count - 2) : Number.NaN;
   const slopeVariance = s2 / sxx;
   const interceptVariance = s2 / sumW + meanX * meanX * slopeVariance;

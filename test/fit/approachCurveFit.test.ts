@@ -180,7 +180,7 @@ describe('fitApproachCurve: recovery and coverage over seeded noisy curves', () 
       zM[i] = i * step;
       currentA[i] = Math.exp(lnCurrent) * (1 + 0.02 * gaussian(random));
     }
-    const fit = fitApproachCurve({ zM, currentA, biasV: 0.1, noise: { floorA: 0 } });
+    const fit = fitApproachCurve({ zM, currentA, biasV: 0.1, noise: { floorA: 0 }, localWindowPoints: 16 });
     expect(fit.durbinWatson).toBeLessThan(1);
     // the local profile follows the falling barrier: ≈ 4 eV near the start, ≈ 2 eV at the far end
     const profile = fit.localProfile.barrierEV;
@@ -302,11 +302,16 @@ describe('fitApproachCurve: input order, sign and failures', () => {
 });
 
 describe('fitApproachCurve: local φ_ap(z) profile', () => {
+  it('computes the local profile only when a window is asked for', () => {
+    const curve = exponentialCurve({ barrierEV: 4, points: 64, fromM: 0, toM: 3 * ANGSTROM_M, currentAtZeroA: 1e-9 });
+    expect(fitApproachCurve({ zM: curve.zM, currentA: curve.currentA, biasV: 0.1 }).localProfile.barrierEV.length).toBe(0);
+  });
+
   it('localProfile of an exact exponential is flat at φ', () => {
     const curve = exponentialCurve({ barrierEV: 4, points: 128, fromM: 0, toM: 3 * ANGSTROM_M, currentAtZeroA: 1e-9 });
-    const fit = fitApproachCurve({ zM: curve.zM, currentA: curve.currentA, biasV: 0.1 });
+    const fit = fitApproachCurve({ zM: curve.zM, currentA: curve.currentA, biasV: 0.1, localWindowPoints: 16 });
     const { zM, barrierEV } = fit.localProfile;
-    // default window n/8 = 16 points ⇒ 128 − 16 + 1 centres
+    // window of 16 points ⇒ 128 − 16 + 1 centres
     expect(barrierEV.length).toBe(113);
     for (let c = 0; c < barrierEV.length; c++) {
       expectRelClose(barrierEV[c], 4, 1e-6);
