@@ -316,6 +316,7 @@ function analyzeSpectrum(curve: CurveInput, settings: AnalysisSettings): CurveRe
       fermiEnergyEV: settings.fermiEnergyEV,
       area: areaConstraint(settings),
       tipWorkFunctionEV: settings.tipWorkFunctionEV ?? undefined,
+      imagePotential: settings.imagePotential,
       noise: { relative: settings.noiseRelative ?? undefined, floorA: settings.noiseFloorA ?? undefined },
     });
   } catch (error) {

@@ -3,7 +3,10 @@ import {
   bdrInverse,
   bdrZeroBiasConductancePerArea,
   paraboloidTipAreaM2,
+  imageRoundedProfile,
+  sampledCurrentDensity,
   simmonsCurrentDensityDerivatives,
+  trapezoidCurrentDensity,
   TrapezoidSpectrum,
 } from '../physics/index.ts';
 import type { Junction } from '../physics/index.ts';
@@ -34,6 +37,8 @@ export interface SpectrumInput {
   area: AreaConstraint;
   /** Fix φ1 at the tip material's work function, eV (else fitted). */
   tipWorkFunctionEV?: number;
+  /** Round the WKB barrier by the image potential (slower; the Simmons and BDR estimates stay square). */
+  imagePotential?: boolean;
   noise?: { relative?: number; floorA?: number };
 }
 
@@ -92,7 +97,8 @@ const MIN_BARRIER_EV = 0.01;
 const MAX_BARRIER_EV = 15;
 const MIN_WIDTH_M = 2e-11;
 const MAX_WIDTH_M = 1e-8;
-const START_MEAN_BARRIER_EV = 4; // typical clean-metal barrier, used only to start the BDR inverse (common practice, no source)
+const START_MEAN_BARRIER_EV = 4;
+const MULTI_START_ASYMMETRY_EV = 1.5; // typical clean-metal barrier, used only to start the BDR inverse (common practice, no source)
 const MAD_TO_SIGMA = 1.482602218505602;
 const SOLVER_OPTIONS: SolverOptions = { maxIterations: 200, functionTolerance: 1e-12, stepTolerance: 1e-10, gradientTolerance: 1e-12 };
 
@@ -120,18 +126,43 @@ export function fitSpectrum(input: SpectrumInput): SpectrumFit {
   const startFrom = simmons.converged ? simmons : bdr;
   const asymmetry = Number.isFinite(bdr.asymmetryEV) ? bdr.asymmetryEV : 0;
   const startMean = Number.isFinite(startFrom.meanBarrierEV) ? startFrom.meanBarrierEV : START_MEAN_BARRIER_EV;
-  const wkb = fitBarrierModel(
-    'wkb',
-    input,
-    weights,
-    {
-      tipWorkFunctionEV: input.tipWorkFunctionEV ?? clampBarrier(startMean - asymmetry / 2),
-      sampleWorkFunctionEV: clampBarrier(startMean + asymmetry / 2),
-      widthM: Number.isFinite(startFrom.widthM) ? startFrom.widthM : 8e-10,
-      areaM2: startFrom.areaM2,
-    },
-    zeroBiasConductanceS,
-  );
+  const wkbFrom = (startAsymmetry: number) =>
+    fitBarrierModel(
+      'wkb',
+      input,
+      weights,
+      {
+        tipWorkFunctionEV: input.tipWorkFunctionEV ?? clampBarrier(startMean - startAsymmetry / 2),
+        sampleWorkFunctionEV: clampBarrier(startMean + startAsymmetry / 2),
+        widthM: Number.isFinite(startFrom.widthM) ? startFrom.widthM : 8e-10,
+        areaM2: startFrom.areaM2,
+      },
+      zeroBiasConductanceS,
+    );
+  let wkb = wkbFrom(asymmetry);
+  // The asymmetry is the loosest direction. A fit that ends far out (|Δφ| > 1.5 eV) or fails, and
+  // every image-rounded fit (the image term loosens the asymmetry further), gets a second start
+  // from the symmetric barrier; the lower χ² wins. When the two optima are statistically as good
+  // (Δχ² < 4·s²) but their asymmetries differ by more than 3σ, the data do not decide between two
+  // barrier shapes and the error bars say so.
+  if (asymmetry !== 0 && (input.imagePotential || !wkb.converged || !(Math.abs(wkb.asymmetryEV) <= MULTI_START_ASYMMETRY_EV))) {
+    const symmetric = wkbFrom(0);
+    const first = wkb;
+    if (symmetric.converged && (!wkb.converged || symmetric.chiSquare < wkb.chiSquare)) wkb = symmetric;
+    const other = wkb === first ? symmetric : first;
+    const spread = Math.abs(other.asymmetryEV - wkb.asymmetryEV);
+    const tolerance = 3 * Math.max(wkb.asymmetryErrorEV, other.asymmetryErrorEV);
+    if (other.converged && wkb.converged && other.chiSquare - wkb.chiSquare < 4 * wkb.reducedChi2 && spread > tolerance) {
+      wkb = {
+        ...wkb,
+        uncertaintiesOk: false,
+        uncertaintyNote:
+          `two barrier shapes fit equally well (φ1/φ2 = ${wkb.tipWorkFunctionEV.toFixed(2)}/${wkb.sampleWorkFunctionEV.toFixed(2)} eV and ` +
+          `${other.tipWorkFunctionEV.toFixed(2)}/${other.sampleWorkFunctionEV.toFixed(2)} eV, Δχ² = ${(other.chiSquare - wkb.chiSquare).toFixed(1)}): ` +
+          'the asymmetry is not determined by this spectrum; fix the tip work function or fit an I(z) at the same site jointly',
+      };
+    }
+  }
   const best = wkb.converged || !simmons.converged ? wkb : simmons;
   const ranked = [wkb, simmons, bdr].filter((e) => Number.isFinite(e.aic)).sort((a, b) => a.aic - b.aic);
   const comparison = ranked.map((e) => ({ model: e.model, aic: e.aic, bic: e.bic, deltaAic: e.aic - ranked[0].aic }));
@@ -458,6 +489,61 @@ function wkbSweep(biasesV: Float64Array, temperatureK: number): SweepDensity {
   return (junction, current, gradient) => spectrum.evaluate(junction, current, gradient);
 }
 
+/** Knots of the image correction across the sweep (each costs seven image-rounded integrals). */
+const IMAGE_KNOTS = 25;
+const IMAGE_SLICES = 200;
+
+/**
+ * WKB with the image-rounded barrier (exact two-surface image sum, physics.md §6, via
+ * imageRoundedProfile and sampledCurrentDensity). The image-rounded current is the trapezoid's
+ * times a factor C(V) that varies slowly with bias, so C and its parameter derivatives (central
+ * differences) are computed at IMAGE_KNOTS biases and ln C is interpolated linearly between them:
+ * J = C·J_trapezoid, ∂J/∂p = C·(∂J_trapezoid/∂p + J_trapezoid·∂ln C/∂p).
+ */
+function imageSweep(biasesV: Float64Array, temperatureK: number): SweepDensity {
+  const plain = new TrapezoidSpectrum(biasesV, temperatureK);
+  let low = Infinity;
+  let high = -Infinity;
+  for (const v of biasesV) {
+    low = Math.min(low, v);
+    high = Math.max(high, v);
+  }
+  const knotCount = biasesV.length === 1 ? 1 : IMAGE_KNOTS;
+  const knots = Float64Array.from({ length: knotCount }, (_, k) => {
+    const v = knotCount === 1 ? biasesV[0] : low + ((high - low) * k) / (knotCount - 1);
+    return Math.abs(v) < 1e-4 ? (v < 0 ? -1e-4 : 1e-4) : v; // C at V = 0 is its limit
+  });
+  const lnFactor = new Float64Array(knotCount * 4); // ln C and ∂ln C/∂(φ1, φ2, d) per knot
+  const logRatio = (junction: Junction, biasV: number) =>
+    Math.log(sampledCurrentDensity(imageRoundedProfile(junction, biasV, { slices: IMAGE_SLICES }), temperatureK) / trapezoidCurrentDensity(junction, biasV, temperatureK));
+  return (junction, current, gradient) => {
+    plain.evaluate(junction, current, gradient);
+    for (let k = 0; k < knotCount; k++) {
+      const v = knots[k];
+      lnFactor[4 * k] = logRatio(junction, v);
+      const steps = [1e-3, 1e-3, 1e-13];
+      for (let p = 0; p < 3; p++) {
+        const up = { ...junction };
+        const down = { ...junction };
+        if (p === 0) (up.tipWorkFunctionEV += steps[p]), (down.tipWorkFunctionEV -= steps[p]);
+        else if (p === 1) (up.sampleWorkFunctionEV += steps[p]), (down.sampleWorkFunctionEV -= steps[p]);
+        else (up.gapM += steps[p]), (down.gapM -= steps[p]);
+        lnFactor[4 * k + 1 + p] = (logRatio(up, v) - logRatio(down, v)) / (2 * steps[p]);
+      }
+    }
+    for (let i = 0; i < biasesV.length; i++) {
+      // Linear interpolation of ln C and its derivatives between the two nearest knots.
+      const k = knotCount === 1 ? 0 : Math.min(knotCount - 2, Math.max(0, Math.floor(((biasesV[i] - low) / (high - low)) * (knotCount - 1))));
+      const t = knotCount === 1 ? 0 : Math.min(1, Math.max(0, (biasesV[i] - knots[k]) / (knots[k + 1] - knots[k])));
+      const at = (j: number) => (knotCount === 1 ? lnFactor[j] : (1 - t) * lnFactor[4 * k + j] + t * lnFactor[4 * (k + 1) + j]);
+      const factor = Math.exp(at(0));
+      const base = current[i];
+      current[i] = factor * base;
+      for (let p = 0; p < 3; p++) gradient[3 * i + p] = factor * (gradient[3 * i + p] + base * at(1 + p));
+    }
+  };
+}
+
 function fitBarrierModel(
   model: 'wkb' | 'simmons',
   input: SpectrumInput,
@@ -468,9 +554,10 @@ function fitBarrierModel(
   const { biasV, currentA, temperatureK, fermiEnergyEV } = input;
   const n = biasV.length;
   const symmetric = model === 'simmons';
-  const sweep = symmetric ? simmonsSweep(biasV) : wkbSweep(biasV, temperatureK);
+  const barrierSweep = input.imagePotential ? imageSweep : wkbSweep;
+  const sweep = symmetric ? simmonsSweep(biasV) : barrierSweep(biasV, temperatureK);
   const probeBias = Float64Array.of(ZERO_BIAS_PROBE_V);
-  const probeSweep = symmetric ? simmonsSweep(probeBias) : wkbSweep(probeBias, temperatureK);
+  const probeSweep = symmetric ? simmonsSweep(probeBias) : barrierSweep(probeBias, temperatureK);
   const probeCurrent = new Float64Array(1);
   const sweepCurrent = new Float64Array(n);
   const sweepGradient = new Float64Array(3 * n);
@@ -550,7 +637,8 @@ function fitBarrierModel(
   }
   for (let k = 0; k < nFree; k++) startQ[k] = Math.min(upper[k] - 1e-9, Math.max(lower[k] + 1e-9, startQ[k]));
   const result = createSolver(nFree, n).solve(problem, startQ, { ...SOLVER_OPTIONS, lower, upper, parameterNames: layout.names });
-  const profileNote = freeArea && result.converged && result.uncertaintiesOk ? profileCheck(problem, result, lower, upper) : '';
+  // The loose cases (a free area, or the image term, which makes the asymmetry loose) get the profile check.
+  const profileNote = (freeArea || input.imagePotential) && result.converged && result.uncertaintiesOk ? profileCheck(problem, result, lower, upper) : '';
   problem.residuals(result.params, new Float64Array(n));
   const best = layout.physical(result.params);
   const area = lastArea;
