@@ -17,7 +17,7 @@ import { detectStepChange } from './detectStepChange.ts';
 import { FLAG_THRESHOLDS, type QualityFlag } from './flagThresholds.ts';
 import { flagsForFit, type FitSummaryForFlags, type ParameterForFlags } from './flagsForFit.ts';
 import type { NoiseFloorFinding } from './detectNoiseFloor.ts';
-import { qualityMetrics } from './qualityMetrics.ts';
+import { qualityMetrics, type QualityMetrics } from './qualityMetrics.ts';
 
 /**
  * One curve as the analysis needs it (the import layer's Curve has these fields): x is the sweep
@@ -251,14 +251,7 @@ function analyzeApproach(curve: CurveInput, settings: AnalysisSettings): CurveRe
   const usedFitted: number[] = [];
   for (let k = 0; k < fit.zM.length; k++) if (fit.exclusion[k] === 0) usedFitted.push(fit.fittedLnCurrent[k]);
   const metrics = qualityMetrics({ observed: usedLn, fitted: usedFitted, weights: usedWeights, nParams: 2 });
-  record.quality = {
-    r2: metrics.r2,
-    reducedChi2: metrics.reducedChi2,
-    durbinWatson: metrics.durbinWatson,
-    rmsResidual: metrics.rmsResidual,
-    pointsUsed: metrics.pointsUsed,
-    points: metrics.points,
-  };
+  record.quality = qualityRecord(metrics, metrics.points);
   // The step test runs on ln I where the noise is even (well above the floor), with a quadratic
   // trend so that curvature is not taken for a step; the curvature test then allows for a step
   // where one was found.
@@ -278,6 +271,11 @@ function analyzeApproach(curve: CurveInput, settings: AnalysisSettings): CurveRe
     stepSeriesIndices: quietOriginal,
   });
   return record;
+}
+
+function qualityRecord(metrics: QualityMetrics, points: number): CurveResult['quality'] {
+  const { r2, reducedChi2, durbinWatson, rmsResidual, pointsUsed } = metrics;
+  return { r2, reducedChi2, durbinWatson, rmsResidual, pointsUsed, points };
 }
 
 function fillApproach(record: CurveResult, fit: ApproachCurveFit): void {
@@ -342,14 +340,7 @@ function analyzeSpectrum(curve: CurveInput, settings: AnalysisSettings): CurveRe
   record.areaErrNm2 = finiteOrNull(chosen.areaErrorM2 * 1e18);
   record.spectrum = { comparison: fit.comparison, fowlerNordheim: fit.fowlerNordheim, correlationNames: chosen.correlationNames, correlation: chosen.correlation };
   const metrics = qualityMetrics({ observed: current, fitted: chosen.fittedCurrentA, weights: fit.weights, nParams: chosen.nFree });
-  record.quality = {
-    r2: metrics.r2,
-    reducedChi2: metrics.reducedChi2,
-    durbinWatson: metrics.durbinWatson,
-    rmsResidual: metrics.rmsResidual,
-    pointsUsed: metrics.pointsUsed,
-    points: curve.x.length,
-  };
+  record.quality = qualityRecord(metrics, curve.x.length);
   const residuals = Array.from(current, (value, i) => (value - chosen.fittedCurrentA[i]) * fit.weights[i]);
   const keptIndex: number[] = [];
   const dropped = new Set(saturation?.pointIndices ?? []);

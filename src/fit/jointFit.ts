@@ -1,7 +1,7 @@
 import { trapezoidCurrentDensityWithGradient, type Junction } from '../physics/index.ts';
 import type { ApproachCurveFit } from './approachCurveFit.ts';
 import { createSolver, type LeastSquaresProblem, type SolverOptions } from './solver.ts';
-import type { BarrierEstimate, SpectrumFit } from './spectrumFit.ts';
+import { describeSolverResult, type BarrierEstimate, type SpectrumFit } from './spectrumFit.ts';
 
 /**
  * Joint fit of an approach curve I(z) and a spectrum I(V) taken at the same site, with shared
@@ -142,12 +142,8 @@ export function jointFit(input: JointFitInput): JointFit {
   const covTipSample = tip * sample * logCov(0, 1);
   const fitted = model.slice(0, nIv);
   const estimate: BarrierEstimate = {
-    model: 'wkb',
-    status: result.status,
+    ...describeSolverResult('wkb', result, fitted, names),
     message: `joint I(z) + I(V) fit: ${result.message}`,
-    converged: result.converged,
-    uncertaintiesOk: result.uncertaintiesOk,
-    uncertaintyNote: result.uncertaintyNote,
     tipWorkFunctionEV: tip,
     tipWorkFunctionErrorEV: Math.sqrt(varTip),
     sampleWorkFunctionEV: sample,
@@ -160,17 +156,6 @@ export function jointFit(input: JointFitInput): JointFit {
     widthErrorM: value(2) * Math.sqrt(logCov(2, 2)),
     areaM2: value(3),
     areaErrorM2: value(3) * Math.sqrt(logCov(3, 3)),
-    correlationNames: names,
-    correlation: Array.from(result.correlation),
-    chiSquare: result.chiSquare,
-    reducedChi2: result.reducedChiSquare,
-    aic: result.aic,
-    bic: result.bic,
-    nPoints: result.nPoints,
-    nFree: result.nFree,
-    iterations: result.iterations,
-    evaluations: result.nEvaluations,
-    fittedCurrentA: fitted,
   };
   const separate = spectrum.fit.best;
   const pairs: [UncertaintyNarrowing['quantity'], number, number, number, number][] = [

@@ -642,7 +642,7 @@ function fitBarrierModel(
   problem.residuals(result.params, new Float64Array(n));
   const best = layout.physical(result.params);
   const area = lastArea;
-  const estimate = describe(model, result, problem.current, layout.names);
+  const estimate = describeSolverResult(model, result, problem.current, layout.names);
   if (profileNote) {
     estimate.uncertaintiesOk = false;
     estimate.uncertaintyNote = profileNote;
@@ -729,7 +729,8 @@ function profileCheck(problem: LeastSquaresProblem, result: SolverResult, lower:
   );
 }
 
-function describe(model: SpectrumModelName, result: SolverResult, fitted: Float64Array, names: string[]): BarrierEstimate {
+/** A BarrierEstimate with the solver's status, statistics and correlations filled in (values still NaN). */
+export function describeSolverResult(model: SpectrumModelName, result: SolverResult, fitted: Float64Array, names: string[]): BarrierEstimate {
   return {
     ...emptyEstimate(model, fitted.length),
     status: result.status,
