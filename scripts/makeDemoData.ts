@@ -80,7 +80,7 @@ interface SpectrumTruth {
   gapNm: number;
   spoiled: string | null;
 }
-const truth: { approach: ApproachTruth[]; spectra: SpectrumTruth[]; grid: unknown[] } = { approach: [], spectra: [], grid: [] };
+const truth: { approach: ApproachTruth[]; spectra: SpectrumTruth[]; grid: unknown[]; sites: unknown[] } = { approach: [], spectra: [], grid: [], sites: [] };
 
 /** Least-squares slope of ln I over points above 20× the floor, as φ_ap. */
 function modelApparentBarrier(points: { gapNm: number; currentA: number }[]): number {
@@ -258,6 +258,33 @@ async function spoiledCurves(): Promise<void> {
   }
 }
 
+/** One site where tip A over gold took both an approach curve and a spectrum (paired by `site`). */
+async function sitePair(): Promise<void> {
+  const tip = tips[0];
+  const sample = samples[0];
+  const spectrumGap = await setpointGapNm(tip, sample, 1, SPECTRUM_SETPOINT_A);
+  const approachGap = await setpointGapNm(tip, sample, APPROACH_BIAS_V, SETPOINT_A);
+  const header = (kind: string) =>
+    metadataLines([
+      ['run', 'A-gold'],
+      ['site', 'S7'],
+      ['tip', `${tip.label} (${tip.description})`],
+      ['sample', `${sample.label} (${sample.description})`],
+      ['note', `${kind} at site S7; the other curve of this site is in the companion file`],
+    ]);
+  const approach = await simulate({ ...junctionFlags(tip, sample), kind: 'iz', 'bias-v': APPROACH_BIAS_V, from: approachGap, to: approachGap + 0.25, points: 96, 'noise-relative': 0.02, 'noise-floor-a': FLOOR_A, seed: 950 });
+  writeFileSync(
+    join(out, 'site-S7-A-gold-approach.csv'),
+    [...header('approach curve'), '# bias: 0.1 V', 'z (nm),current (pA)', ...approach.map((p) => `${(p.gapNm - approachGap).toFixed(5)},${(p.currentA * 1e12).toPrecision(6)}`)].join('\n') + '\n',
+  );
+  const spectrum = await simulate({ ...junctionFlags(tip, sample), kind: 'iv', 'gap-nm': spectrumGap, from: -1, to: 1, points: 201, 'noise-relative': 0.01, 'noise-floor-a': 2e-12, seed: 951 });
+  writeFileSync(
+    join(out, 'site-S7-A-gold-spectrum.csv'),
+    [...header('spectrum'), 'bias (V),current (nA)', ...spectrum.map((p) => `${p.biasV.toFixed(4)},${(p.currentA * 1e9).toPrecision(6)}`)].join('\n') + '\n',
+  );
+  truth.sites.push({ site: 'S7', run: 'A-gold', tipWorkFunctionEV: tip.workFunctionEV, sampleWorkFunctionEV: sample.workFunctionEV, spectrumGapNm: spectrumGap });
+}
+
 async function main(): Promise<void> {
   mkdirSync(out, { recursive: true });
   for (const name of readdirSync(out)) if (/\.(csv|tsv|txt|json)$/.test(name) && name !== 'settings.json') rmSync(join(out, name));
@@ -270,6 +297,7 @@ async function main(): Promise<void> {
   }
   await gridRun();
   await spoiledCurves();
+  await sitePair();
   writeFileSync(join(out, 'truth.json'), JSON.stringify({ note: 'true parameters of the simulated demo curves (invented scenario)', ...truth }, null, 1) + '\n');
   console.log(`wrote demo data to ${out}`);
 }

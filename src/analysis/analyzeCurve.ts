@@ -86,6 +86,8 @@ export interface CurveResult {
     correlationNames: string[];
     correlation: number[];
   } | null;
+  /** For a spectrum paired with an approach curve of the same site: the joint fit (analyzeJoint). */
+  joint?: import('./analyzeJoint.ts').JointSiteResult;
   /** Numbers used for the bias of I(z) curves and the temperature, for the record. */
   conditions: { biasV: number | null; temperatureK: number };
 }

@@ -19,3 +19,5 @@ export * from './checkPoorFit.ts';
 export * from './flagsForFit.ts';
 export * from './analyzeCurve.ts';
 export * from './analyzeBatch.ts';
+export * from './pairSites.ts';
+export * from './analyzeJoint.ts';

@@ -2,6 +2,8 @@ import { readFileSync, writeFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { analyzeCurve, type CurveResult } from '../analysis/analyzeCurve.ts';
 import { finishBatch } from '../analysis/analyzeBatch.ts';
+import { analyzeJoint } from '../analysis/analyzeJoint.ts';
+import { pairSites } from '../analysis/pairSites.ts';
 import { RESULT_COLUMNS } from '../io/resultColumns.ts';
 import { validateSettings, type AnalysisSettings } from '../fit/index.ts';
 import { toCsv } from '../io/exportResults.ts';
@@ -61,6 +63,13 @@ export const fitCommand: Command = {
       results = raw.map((result, i) => (result instanceof Error ? failedResult(tasks[i], result) : result));
     }
     results = finishBatch(results);
+    // Approach curves and spectra of one site: fit them together too (the spectrum's record gets `joint`).
+    const pairs = pairSites(chosen);
+    for (const pair of pairs) {
+      const spectrumIndex = pair.spectrum;
+      results[spectrumIndex] = { ...results[spectrumIndex], joint: analyzeJoint(chosen[pair.approach], chosen[spectrumIndex], pair.by, settings) };
+    }
+    if (pairs.length) io.stderr(`burrow fit: ${pairs.length} site${pairs.length === 1 ? '' : 's'} with an approach curve and a spectrum fitted jointly\n`);
     if (io.stderrIsTTY && tasks.length) io.stderr('\n');
     const flagged = results.filter((r) => r.flags.length).length;
     io.stderr(`burrow fit: ${results.length} curves from ${files.length} files; ${results.filter((r) => r.status === 'ok').length} fitted, ${flagged} flagged\n`);

@@ -33,7 +33,7 @@ async function fitDemo(extra: string[] = []): Promise<CurveResult[]> {
 describe('burrow fit on the demo scenario', () => {
   it('fits every curve, flags exactly the spoiled ones with their codes, and recovers the true barriers', async () => {
     const results = await fitDemo();
-    expect(results.length).toBe(96);
+    expect(results.length).toBe(98);
     expect(results.every((r) => r.status === 'ok')).toBe(true);
     const find = (file: string, index: number, segment = 'single') =>
       results.find((r) => base(r.file) === file && r.index === index && r.segment === segment) as CurveResult;
@@ -61,6 +61,18 @@ describe('burrow fit on the demo scenario', () => {
       expect(Math.abs((result.phi2EV as number) - t.sampleWorkFunctionEV)).toBeLessThan(3 * (result.phi2ErrEV as number));
       expect(Math.abs((result.widthNm as number) - t.gapNm)).toBeLessThan(3 * (result.widthErrNm as number));
     }
+  });
+
+  it('fits the approach curve and the spectrum of site S7 jointly, within 3σ of the truth', async () => {
+    const results = await fitDemo();
+    const spectrum = results.find((r) => base(r.file) === 'site-S7-A-gold-spectrum.csv') as CurveResult;
+    const joint = spectrum.joint;
+    expect(joint?.pairedBy).toBe('site');
+    expect(joint?.status).toBe('ok');
+    const site = (truth as unknown as { sites: { tipWorkFunctionEV: number; sampleWorkFunctionEV: number; spectrumGapNm: number }[] }).sites[0];
+    expect(Math.abs((joint!.phi1EV as number) - site.tipWorkFunctionEV)).toBeLessThan(3 * (joint!.phi1ErrEV as number));
+    expect(Math.abs((joint!.phi2EV as number) - site.sampleWorkFunctionEV)).toBeLessThan(3 * (joint!.phi2ErrEV as number));
+    expect(Math.abs((joint!.widthNm as number) - site.spectrumGapNm)).toBeLessThan(3 * (joint!.widthErrNm as number));
   });
 
   it('gives identical results with 1 and 2 workers', async () => {

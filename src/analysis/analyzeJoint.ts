@@ -1,0 +1,98 @@
+import { fitApproachCurve, fitSpectrum, jointFit, settingsForRun, type AnalysisSettings, type UncertaintyNarrowing } from '../fit/index.ts';
+import { runOf, type CurveInput } from './analyzeCurve.ts';
+import type { SitePair } from './pairSites.ts';
+
+/** The joint I(z) + I(V) result of one site, attached to the spectrum's record. */
+export interface JointSiteResult {
+  approachCurve: string;
+  spectrumCurve: string;
+  pairedBy: SitePair['by'];
+  status: 'ok' | 'failed';
+  message: string;
+  phi1EV: number | null;
+  phi1ErrEV: number | null;
+  phi2EV: number | null;
+  phi2ErrEV: number | null;
+  meanBarrierEV: number | null;
+  meanBarrierErrEV: number | null;
+  asymmetryEV: number | null;
+  asymmetryErrEV: number | null;
+  widthNm: number | null;
+  widthErrNm: number | null;
+  areaNm2: number | null;
+  areaErrNm2: number | null;
+  approachGapNm: number | null;
+  reducedChi2: number | null;
+  /** How much narrower each joint error bar is than the lone spectrum's (see UncertaintyNarrowing). */
+  narrowing: (Omit<UncertaintyNarrowing, 'factor'> & { factor: number | null })[];
+}
+
+const finite = (value: number): number | null => (Number.isFinite(value) ? value : null);
+
+/**
+ * Fit an approach curve and a spectrum of one site together with shared barrier parameters
+ * (jointFit), from their own separate fits. The area is shared and fitted: the approach curve's
+ * slope pins the barrier that the lone spectrum leaves loose.
+ * @example analyzeJoint(curves[pair.approach], curves[pair.spectrum], pair.by, settings).meanBarrierEV
+ */
+export function analyzeJoint(approach: CurveInput, spectrum: CurveInput, pairedBy: SitePair['by'], sessionSettings: AnalysisSettings): JointSiteResult {
+  const settings = settingsForRun(sessionSettings, runOf(spectrum));
+  const base: JointSiteResult = {
+    approachCurve: approach.id,
+    spectrumCurve: spectrum.id,
+    pairedBy,
+    status: 'failed',
+    message: '',
+    phi1EV: null,
+    phi1ErrEV: null,
+    phi2EV: null,
+    phi2ErrEV: null,
+    meanBarrierEV: null,
+    meanBarrierErrEV: null,
+    asymmetryEV: null,
+    asymmetryErrEV: null,
+    widthNm: null,
+    widthErrNm: null,
+    areaNm2: null,
+    areaErrNm2: null,
+    approachGapNm: null,
+    reducedChi2: null,
+    narrowing: [],
+  };
+  try {
+    const biasV = approach.fixedBiasV ?? approach.metadata?.bias?.value ?? settings.defaultBiasV;
+    const zM = Float64Array.from(approach.x, (z) => z * settings.piezoCalibration);
+    const approachFit = fitApproachCurve({ zM, currentA: approach.current, biasV });
+    if (approachFit.status !== 'ok') return { ...base, message: `approach curve: ${approachFit.message}` };
+    const spectrumFit = fitSpectrum({ biasV: spectrum.x, currentA: spectrum.current, temperatureK: settings.temperatureK, fermiEnergyEV: settings.fermiEnergyEV, area: { mode: 'free' } });
+    const joint = jointFit({
+      approach: { zM, currentA: approach.current, biasV, fit: approachFit },
+      spectrum: { biasV: spectrum.x, currentA: spectrum.current, fit: spectrumFit },
+      temperatureK: settings.temperatureK,
+      fermiEnergyEV: settings.fermiEnergyEV,
+    });
+    const e = joint.estimate;
+    return {
+      ...base,
+      status: e.converged ? 'ok' : 'failed',
+      message: e.message,
+      phi1EV: finite(e.tipWorkFunctionEV),
+      phi1ErrEV: finite(e.tipWorkFunctionErrorEV),
+      phi2EV: finite(e.sampleWorkFunctionEV),
+      phi2ErrEV: finite(e.sampleWorkFunctionErrorEV),
+      meanBarrierEV: finite(e.meanBarrierEV),
+      meanBarrierErrEV: finite(e.meanBarrierErrorEV),
+      asymmetryEV: finite(e.asymmetryEV),
+      asymmetryErrEV: finite(e.asymmetryErrorEV),
+      widthNm: finite(e.widthM * 1e9),
+      widthErrNm: finite(e.widthErrorM * 1e9),
+      areaNm2: finite(e.areaM2 * 1e18),
+      areaErrNm2: finite(e.areaErrorM2 * 1e18),
+      approachGapNm: finite(joint.approachGapM * 1e9),
+      reducedChi2: finite(e.reducedChi2),
+      narrowing: joint.narrowing.map((n) => ({ ...n, factor: finite(n.factor) })),
+    };
+  } catch (error) {
+    return { ...base, message: `joint fit failed: ${(error as Error).message}` };
+  }
+}
