@@ -154,7 +154,9 @@ export function fitApproachCurve(input: ApproachCurveInput): ApproachCurveFit {
     throw new Error(`fitApproachCurve: currentA must have the length of zM (${n}), got ${input.currentA.length}`);
   }
   const order = ascendingOrder(input.zM);
-  const zM = new Float64Array(n);
+  // The five per-point outputs share one allocation (views of one buffer).
+  const outputs = new Float64Array(5 * n);
+  const zM = outputs.subarray(0, n);
   reserveWork(n);
   const signedCurrent = workSigned;
   const sign = input.biasV < 0 ? -1 : 1;
@@ -163,9 +165,10 @@ export function fitApproachCurve(input: ApproachCurveInput): ApproachCurveFit {
     signedCurrent[i] = sign * input.currentA[order[i]];
   }
   const exclusion = new Uint8Array(n);
-  const lnCurrent = new Float64Array(n);
-  const fitted = new Float64Array(n);
-  const weights = new Float64Array(n);
+  const lnCurrent = outputs.subarray(n, 2 * n);
+  const fitted = outputs.subarray(2 * n, 3 * n);
+  const weights = outputs.subarray(3 * n, 4 * n);
+  const residuals = outputs.subarray(4 * n, 5 * n);
   const scratch = workScratch;
   const debiased = workDebiased;
   const expLine = workExp;
@@ -227,8 +230,9 @@ export function fitApproachCurve(input: ApproachCurveInput): ApproachCurveFit {
       exclusion[i] = lost ? ExclusionReason.noiseFloor : ExclusionReason.used;
       if (lost) noiseFloorCount++;
     }
-    // Relative noise from the ln I scatter where the floor is negligible, unless given.
-    if (!Number.isFinite(input.noise?.relative ?? Number.NaN)) {
+    // Relative noise from the ln I scatter where the floor is negligible, unless given (once: the
+    // second pass moves the line by a fraction of its error, which leaves this scale unchanged).
+    if (pass === 0 && !Number.isFinite(input.noise?.relative ?? Number.NaN)) {
       let count = 0;
       const cleanLn = floorA > 0 ? Math.log(10 * floorA) : -Infinity;
       for (let i = 0; i < n; i++) {
@@ -254,7 +258,7 @@ export function fitApproachCurve(input: ApproachCurveInput): ApproachCurveFit {
     if (!(refit.count >= MIN_POINTS && refit.slope < 0)) return failed(input, order, zM, lnCurrent, exclusion, refit, saturationCount);
     line = refit;
   }
-  return summarise(input, { order, zM, lnCurrent, signedCurrent, exclusion, fitted, weights, mask, line, floorA, relativeNoise, saturationCount, noiseFloorCount });
+  return summarise(input, { order, zM, lnCurrent, signedCurrent, exclusion, fitted, weights, residuals, mask, line, floorA, relativeNoise, saturationCount, noiseFloorCount });
 }
 
 function ascendingOrder(zM: Float64Array): Int32Array {
@@ -279,6 +283,7 @@ interface FitState {
   exclusion: Uint8Array;
   fitted: Float64Array;
   weights: Float64Array;
+  residuals: Float64Array;
   mask: Uint8Array;
   line: LineFit;
   floorA: number;
@@ -288,9 +293,8 @@ interface FitState {
 }
 
 function summarise(input: ApproachCurveInput, s: FitState): ApproachCurveFit {
-  const { zM, lnCurrent, exclusion, fitted, weights, line } = s;
+  const { zM, lnCurrent, exclusion, fitted, weights, line, residuals } = s;
   const n = zM.length;
-  const residuals = new Float64Array(n);
   let sumY = 0;
   let used = 0;
   for (let i = 0; i < n; i++) {
