@@ -6,6 +6,8 @@ import {
   settingsForRun,
   type AnalysisSettings,
   type ApproachCurveFit,
+  type ApproachCurveInput,
+  type SpectrumInput,
   type AreaConstraint,
   type BarrierEstimate,
   type SpectrumFit,
@@ -169,21 +171,56 @@ function baseRecord(curve: CurveInput, settings: AnalysisSettings): CurveResult 
   };
 }
 
-function analyzeApproach(curve: CurveInput, settings: AnalysisSettings): CurveResult {
-  const record = baseRecord(curve, settings);
-  const biasV = biasOf(curve, settings);
-  record.conditions.biasV = biasV;
-  const zM = settings.piezoCalibration === 1 ? curve.x : Float64Array.from(curve.x, (z) => z * settings.piezoCalibration);
+/**
+ * The approach-curve fit input that a curve and the settings in force call for (bias, calibrated
+ * z, known noise and preamp limit, setpoint, manual window): shared by analyzeCurve and the joint fit.
+ */
+export function approachFitInput(curve: CurveInput, settings: AnalysisSettings): ApproachCurveInput {
   const setpoint = curve.metadata?.setpointCurrent?.value;
-  const fit = fitApproachCurve({
-    zM,
+  return {
+    zM: settings.piezoCalibration === 1 ? curve.x : Float64Array.from(curve.x, (z) => z * settings.piezoCalibration),
     currentA: curve.current,
-    biasV,
+    biasV: biasOf(curve, settings),
     noise: { relative: settings.noiseRelative ?? undefined, floorA: settings.noiseFloorA ?? undefined },
     saturationLimitA: settings.saturationLimitA ?? undefined,
     setpointCurrentA: setpoint !== undefined && setpoint !== 0 ? setpoint : undefined,
     ...(curve.windowM ? { windowM: curve.windowM } : {}),
-  });
+  };
+}
+
+/**
+ * The spectrum fit input for a curve and the settings in force, with clipped points (preamp
+ * saturation) left out; `keptIndex` maps the kept points back to the curve.
+ */
+export function spectrumFitInput(curve: CurveInput, settings: AnalysisSettings): { input: SpectrumInput; saturation: SaturationFinding | null; keptIndex: number[] } {
+  const saturation = detectSaturation(curve.current, { knownLimitA: settings.saturationLimitA ?? undefined });
+  const dropped = new Set(saturation?.pointIndices ?? []);
+  const keptIndex: number[] = [];
+  for (let i = 0; i < curve.x.length; i++) if (!dropped.has(i)) keptIndex.push(i);
+  const biasV = dropped.size ? Float64Array.from(keptIndex, (i) => curve.x[i]) : curve.x;
+  const currentA = dropped.size ? Float64Array.from(keptIndex, (i) => curve.current[i]) : curve.current;
+  return {
+    input: {
+      biasV,
+      currentA,
+      temperatureK: settings.temperatureK,
+      fermiEnergyEV: settings.fermiEnergyEV,
+      area: areaConstraint(settings),
+      tipWorkFunctionEV: settings.tipWorkFunctionEV ?? undefined,
+      imagePotential: settings.imagePotential,
+      noise: { relative: settings.noiseRelative ?? undefined, floorA: settings.noiseFloorA ?? undefined },
+    },
+    saturation,
+    keptIndex,
+  };
+}
+
+function analyzeApproach(curve: CurveInput, settings: AnalysisSettings): CurveResult {
+  const record = baseRecord(curve, settings);
+  const input = approachFitInput(curve, settings);
+  const { zM, biasV } = input;
+  record.conditions.biasV = biasV;
+  const fit = fitApproachCurve(input);
   record.message = fit.message;
   const excluded: number[] = [];
   const saturated: number[] = [];
@@ -196,7 +233,7 @@ function analyzeApproach(curve: CurveInput, settings: AnalysisSettings): CurveRe
   }
   const saturation: SaturationFinding | null =
     saturated.length > 0
-      ? { pointIndices: saturated.sort((a, b) => a - b), levelA: Math.exp(Math.max(...saturated.map((i) => Math.log(Math.abs(curve.current[i]))))), end: 'start', atKnownLimit: settings.saturationLimitA !== null }
+      ? { pointIndices: saturated.sort((a, b) => a - b), levelA: Math.max(...saturated.map((i) => Math.abs(curve.current[i]))), end: 'start', atKnownLimit: settings.saturationLimitA !== null }
       : null;
   const floorFraction = floor.length / Math.max(1, fit.points);
   const noiseFloor: NoiseFloorFinding | null =
@@ -208,7 +245,7 @@ function analyzeApproach(curve: CurveInput, settings: AnalysisSettings): CurveRe
   // replaced by the fitted current, which keeps every index in place.
   const contactCurrent = Float64Array.from(curve.current);
   if (fit.status === 'ok' && fit.noiseFloorA > 0) {
-    const quietLn = Math.log(10 * fit.noiseFloorA);
+    const quietLn = Math.log(FLAG_THRESHOLDS.contactQuietFloorMultiple.value * fit.noiseFloorA);
     const sign = biasV < 0 ? -1 : 1;
     for (let k = 0; k < fit.zM.length; k++) {
       if (fit.fittedLnCurrent[k] < quietLn && fit.exclusion[k] !== ExclusionReason.saturation) contactCurrent[fit.order[k]] = sign * Math.exp(fit.fittedLnCurrent[k]);
@@ -237,7 +274,7 @@ function analyzeApproach(curve: CurveInput, settings: AnalysisSettings): CurveRe
   const quietZNm: number[] = [];
   const quietLn: number[] = [];
   const quietOriginal: number[] = [];
-  const quietLevel = fit.noiseFloorA > 0 ? Math.log(30 * fit.noiseFloorA) : -Infinity;
+  const quietLevel = fit.noiseFloorA > 0 ? Math.log(FLAG_THRESHOLDS.stepQuietFloorMultiple.value * fit.noiseFloorA) : -Infinity;
   for (let k = 0; k < fit.zM.length; k++) {
     if (fit.exclusion[k] !== 0) continue;
     usedZNm.push(fit.zM[k] * 1e9);
@@ -261,7 +298,7 @@ function analyzeApproach(curve: CurveInput, settings: AnalysisSettings): CurveRe
   const step = stepFound && Math.abs(stepFound.stepSize) >= FLAG_THRESHOLDS.stepMinimumLogCurrent.value ? stepFound : null;
   const stepIndexInUsed = step ? usedOriginal.indexOf(quietOriginal[step.index]) : -1;
   const curvature =
-    usedZNm.length >= 6 ? detectCurvature(usedZNm, usedLn, usedWeights.map((w) => w * w), stepIndexInUsed >= 0 ? { stepAtIndex: stepIndexInUsed } : {}) : null;
+    usedZNm.length >= 6 ? detectCurvature(usedZNm, usedLn, usedWeights, stepIndexInUsed >= 0 ? { stepAtIndex: stepIndexInUsed } : {}) : null;
   record.flags = flagsForFit({
     ...summary,
     metrics,
@@ -299,26 +336,11 @@ function fillApproach(record: CurveResult, fit: ApproachCurveFit): void {
 
 function analyzeSpectrum(curve: CurveInput, settings: AnalysisSettings): CurveResult {
   const record = baseRecord(curve, settings);
-  const saturation = detectSaturation(curve.current, { knownLimitA: settings.saturationLimitA ?? undefined });
-  let biasV = curve.x;
-  let current = curve.current;
-  if (saturation) {
-    const drop = new Set(saturation.pointIndices);
-    biasV = Float64Array.from(curve.x.filter((_, i) => !drop.has(i)));
-    current = Float64Array.from(curve.current.filter((_, i) => !drop.has(i)));
-  }
+  const { input, saturation, keptIndex } = spectrumFitInput(curve, settings);
+  const current = input.currentA;
   let fit: SpectrumFit;
   try {
-    fit = fitSpectrum({
-      biasV,
-      currentA: current,
-      temperatureK: settings.temperatureK,
-      fermiEnergyEV: settings.fermiEnergyEV,
-      area: areaConstraint(settings),
-      tipWorkFunctionEV: settings.tipWorkFunctionEV ?? undefined,
-      imagePotential: settings.imagePotential,
-      noise: { relative: settings.noiseRelative ?? undefined, floorA: settings.noiseFloorA ?? undefined },
-    });
+    fit = fitSpectrum(input);
   } catch (error) {
     record.message = (error as Error).message;
     record.flags = flagsForFit({ kind: 'iv', converged: false, statusMessage: record.message, saturation });
@@ -344,9 +366,6 @@ function analyzeSpectrum(curve: CurveInput, settings: AnalysisSettings): CurveRe
   const metrics = qualityMetrics({ observed: current, fitted: chosen.fittedCurrentA, weights: fit.weights, nParams: chosen.nFree });
   record.quality = qualityRecord(metrics, curve.x.length);
   const residuals = Array.from(current, (value, i) => (value - chosen.fittedCurrentA[i]) * fit.weights[i]);
-  const keptIndex: number[] = [];
-  const dropped = new Set(saturation?.pointIndices ?? []);
-  for (let i = 0; i < curve.x.length; i++) if (!dropped.has(i)) keptIndex.push(i);
   const names = chosen.correlationNames;
   const parameters: ParameterForFlags[] = names.map((name, a) => ({
     name,

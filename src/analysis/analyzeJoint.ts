@@ -1,5 +1,5 @@
 import { fitApproachCurve, fitSpectrum, jointFit, settingsForRun, type AnalysisSettings, type UncertaintyNarrowing } from '../fit/index.ts';
-import { runOf, type CurveInput } from './analyzeCurve.ts';
+import { approachFitInput, runOf, spectrumFitInput, type CurveInput } from './analyzeCurve.ts';
 import type { SitePair } from './pairSites.ts';
 
 /** The joint I(z) + I(V) result of one site, attached to the spectrum's record. */
@@ -31,8 +31,9 @@ const finite = (value: number): number | null => (Number.isFinite(value) ? value
 
 /**
  * Fit an approach curve and a spectrum of one site together with shared barrier parameters
- * (jointFit), from their own separate fits. The area is shared and fitted: the approach curve's
- * slope pins the barrier that the lone spectrum leaves loose.
+ * (jointFit), from their own separate fits (made with the same inputs as analyzeCurve). The area is
+ * shared and fitted: the approach curve's slope pins the barrier that the lone spectrum leaves
+ * loose. The narrowing compares with the lone spectrum fit as the settings configure it.
  * @example analyzeJoint(curves[pair.approach], curves[pair.spectrum], pair.by, settings).meanBarrierEV
  */
 export function analyzeJoint(approach: CurveInput, spectrum: CurveInput, pairedBy: SitePair['by'], sessionSettings: AnalysisSettings): JointSiteResult {
@@ -60,14 +61,16 @@ export function analyzeJoint(approach: CurveInput, spectrum: CurveInput, pairedB
     narrowing: [],
   };
   try {
-    const biasV = approach.fixedBiasV ?? approach.metadata?.bias?.value ?? settings.defaultBiasV;
-    const zM = Float64Array.from(approach.x, (z) => z * settings.piezoCalibration);
-    const approachFit = fitApproachCurve({ zM, currentA: approach.current, biasV });
+    // The same inputs as the lone fits of analyzeCurve (settings, preamp limit, window, clipped
+    // points of the spectrum left out).
+    const approachInput = approachFitInput(approach, settings);
+    const approachFit = fitApproachCurve(approachInput);
     if (approachFit.status !== 'ok') return { ...base, message: `approach curve: ${approachFit.message}` };
-    const spectrumFit = fitSpectrum({ biasV: spectrum.x, currentA: spectrum.current, temperatureK: settings.temperatureK, fermiEnergyEV: settings.fermiEnergyEV, area: { mode: 'free' } });
+    const { input: spectrumInput } = spectrumFitInput(spectrum, settings);
+    const spectrumFit = fitSpectrum(spectrumInput);
     const joint = jointFit({
-      approach: { zM, currentA: approach.current, biasV, fit: approachFit },
-      spectrum: { biasV: spectrum.x, currentA: spectrum.current, fit: spectrumFit },
+      approach: { zM: approachInput.zM, currentA: approachInput.currentA, biasV: approachInput.biasV, fit: approachFit },
+      spectrum: { biasV: spectrumInput.biasV, currentA: spectrumInput.currentA, fit: spectrumFit },
       temperatureK: settings.temperatureK,
       fermiEnergyEV: settings.fermiEnergyEV,
     });

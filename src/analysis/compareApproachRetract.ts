@@ -62,7 +62,7 @@ function logCurrentAt(line: FittedLogCurrentLine, zNm: number): { value: number;
 /**
  * Compare the approach and retract sweeps of one curve: the junction changed (hysteresis) when the
  * ln I slopes, or the currents at a common gap, differ by more than k = FLAG_THRESHOLDS.hysteresisSigmas
- * (3) combined standard errors.
+ * (3.29) combined standard errors.
  * Slopes: Δ = s_r − s_a, z_s = |Δ|/√(σ_a² + σ_r²). Currents at z₀: ln I(z₀) = a + s z₀ with
  * var = σ_a² + z₀²σ_s² + 2z₀ cov(s, a) for each sweep, z_I = |ln I_r − ln I_a|/√(var_r + var_a).
  * The two sweeps are independent measurements, so their variances add. Slopes in 1/nm, z in nm.

@@ -84,7 +84,7 @@ function solveNormalEquations(matrix: readonly number[], rhs: readonly number[],
  * (as in src/fit); c = β₂/h², stderr(c) = √cov₂₂/h², t = c/stderr, p two-sided Student t, ν = n − 3.
  * The slope b + 2c x changes across the window by 4β₂/h; relative to the mid-window slope β₁/h that is
  * 4|β₂|/|β₁|. nonExponential = p < FLAG_THRESHOLDS.curvatureSignificance (1e-3) and relative change >
- * FLAG_THRESHOLDS.curvatureSlopeChangeFraction (0.1). weights: residual weights 1/σ_i (default 1);
+ * FLAG_THRESHOLDS.curvatureSlopeChangeFraction (0.2). weights: residual weights 1/σ_i (default 1);
  * points with weight 0 are left out. With options.stepAtIndex (a tip change found by
  * detectStepChange) the model gains an offset δ·[i ≥ stepAtIndex] and ν = n − 4, so that a step is not
  * read as curvature.

@@ -3,6 +3,7 @@
  * detectors and the flag rules use. The README documents this table; change a number here and only
  * here.
  */
+import { FLOOR_SIGNAL_RATIO, SATURATION_RELATIVE_TOLERANCE } from '../fit/approachCurveFit.ts';
 
 /**
  * Every flag code Burrow can raise, in the order flags are listed. The strings are stable: files,
@@ -60,7 +61,7 @@ export interface FlagThreshold {
 /** The table itself; exported below as FLAG_THRESHOLDS with plain number values. */
 const THRESHOLD_TABLE = {
   saturationRelativeTolerance: {
-    value: 5e-5,
+    value: SATURATION_RELATIVE_TOLERANCE,
     unit: 'fraction of |I|',
     rationale:
       'A rail repeats one converter code or toggles between two (one 16-bit step is 3.1e-5 of full scale); unclipped neighbours with 2–5 % noise agree this closely about once in 1000 curves.',
@@ -71,7 +72,7 @@ const THRESHOLD_TABLE = {
     rationale: 'One point at the maximum is just the maximum; two or more equal extremes at the high-current end are a rail.',
   },
   noiseFloorMultiple: {
-    value: 3,
+    value: FLOOR_SIGNAL_RATIO,
     unit: 'times the additive noise σ',
     rationale: 'Below 3σ of the additive noise ln|I| is biased and its scatter is not the multiplicative noise the fit assumes [cp].',
   },
@@ -94,6 +95,11 @@ const THRESHOLD_TABLE = {
     value: 0.1,
     unit: '|Δ ln I| (I(z) curves)',
     rationale: 'A tip change worth flagging moves the current by 10 % or more; smaller significant steps in long clean curves are noise structure (common practice, no source).',
+  },
+  stepQuietFloorMultiple: {
+    value: 30,
+    unit: 'times the additive noise σ',
+    rationale: 'The I(z) step test uses the points more than 30 σ_floor above the floor, where the noise of ln I is the even relative noise.',
   },
   stepMinimumSegment: {
     value: 2,
@@ -129,6 +135,11 @@ const THRESHOLD_TABLE = {
     value: 0.001,
     unit: 'G0 on the high side of the jump',
     rationale: 'A jump to contact ends within a decade or two of G0 (physics.md §3); a step at 1e-6 G0 is a tip change (common practice, no source).',
+  },
+  contactQuietFloorMultiple: {
+    value: 10,
+    unit: 'times the additive noise σ',
+    rationale: 'I(z) points whose fitted current is below 10 σ_floor are left out of the jump search: there |I/V| scatters by tens of percent between neighbours.',
   },
   contactTrendWindow: {
     value: 8,

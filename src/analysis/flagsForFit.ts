@@ -62,7 +62,7 @@ export interface FitSummaryForFlags {
   readonly widthNm?: number;
   /** Result of {@link detectSaturation} on the raw currents. */
   readonly saturation?: SaturationFinding | null;
-  /** Result of {@link detectNoiseFloor} on the raw currents. */
+  /** The points lost in the noise floor: from the fit's exclusions for I(z) (analyzeCurve), or {@link detectNoiseFloor} on raw currents. */
   readonly noiseFloor?: NoiseFloorFinding | null;
   /** Curve indices the fit left out; when given, reasons say whether flagged points were excluded. */
   readonly excludedIndices?: readonly number[];

@@ -16,8 +16,8 @@ import { weightedLine, type LineFit } from './weightedLine.ts';
  * gap to point contact by extrapolating G = I/V to G0 = 2e²/h (physics.md §3).
  *
  * Exclusions, decided in this order and kept per point (see `ExclusionReason`):
- * 1. outside a manual window; 2. non-finite; 3. saturation: a run of ≥ 2 points within
- *    `saturationTolerance` of the largest |I| (or at a known limit); 4. noise floor: where the fitted
+ * 1. outside a manual window; 2. non-finite; 3. saturation: a run of ≥ 2 points from the closest
+ *    end within SATURATION_RELATIVE_TOLERANCE of the largest |I| (or ≥ 1 at a known limit); 4. noise floor: where the fitted
  *    current is below `floorSignalRatio` × the floor σ (estimated from the tail when not given), and
  *    points whose current has the wrong sign.
  */
@@ -93,8 +93,18 @@ export interface ApproachCurveFit {
   localProfile: { zM: Float64Array; barrierEV: Float64Array; barrierErrorEV: Float64Array };
 }
 
-const SATURATION_TOLERANCE = 2e-3;
-const FLOOR_SIGNAL_RATIO = 3;
+/**
+ * Saturation: the points at the high-current end whose |I| is within this fraction of the largest
+ * (a rail repeats one converter code or toggles between two; one 16-bit step is 3.1e-5 of full
+ * scale). Shared with the flag table (FLAG_THRESHOLDS.saturationRelativeTolerance).
+ */
+export const SATURATION_RELATIVE_TOLERANCE = 5e-5;
+/** Noise floor: points whose fitted current is below this many σ_floor are left out (FLAG_THRESHOLDS.noiseFloorMultiple). */
+export const FLOOR_SIGNAL_RATIO = 3;
+export const CLEAN_FLOOR_MULTIPLES = [30, 10];
+const OPPOSITE_SIGN_MESSAGE = (biasV: number) =>
+  `the current has the opposite sign to the bias (${biasV} V) on most points: Burrow's bias is the sample bias (V > 0 sends electrons tip → sample and gives I > 0); check the bias convention of the export or the preamp polarity`;
+
 const TAIL_FRACTION_OF_MAX = 0.02;
 const MIN_POINTS = 4;
 const MAD_TO_SIGMA = 1.482602218505602; // 1/Φ⁻¹(3/4), normal consistency of the MAD [textbook]
@@ -185,11 +195,22 @@ export function fitApproachCurve(input: ApproachCurveInput): ApproachCurveFit {
     else if (current > maxCurrent) maxCurrent = current;
     lnCurrent[i] = current > 0 ? Math.log(current) : Number.NaN;
   }
-  const clipLevel = input.saturationLimitA !== undefined ? Math.min(Math.abs(input.saturationLimitA), maxCurrent) : maxCurrent;
+  // A clipped preamp holds the closest points (the start of the ascending-z order) at its rail:
+  // a contiguous run from that end, at a known limit or within the tolerance of the largest |I|.
+  const known = input.saturationLimitA !== undefined;
+  const clipLevel = known ? Math.abs(input.saturationLimitA as number) : maxCurrent;
   let saturationCount = 0;
-  for (let i = 0; i < n; i++) if (exclusion[i] === 0 && signedCurrent[i] >= clipLevel * (1 - SATURATION_TOLERANCE)) saturationCount++;
-  if (saturationCount >= 2 || (input.saturationLimitA !== undefined && saturationCount >= 1)) {
-    for (let i = 0; i < n; i++) if (exclusion[i] === 0 && signedCurrent[i] >= clipLevel * (1 - SATURATION_TOLERANCE)) exclusion[i] = ExclusionReason.saturation;
+  for (let i = 0; i < n; i++) {
+    if (exclusion[i] !== 0) continue;
+    if (!(signedCurrent[i] >= clipLevel * (1 - SATURATION_RELATIVE_TOLERANCE))) break;
+    saturationCount++;
+  }
+  if (saturationCount >= 2 || (known && saturationCount >= 1)) {
+    for (let i = 0, marked = 0; i < n && marked < saturationCount; i++) {
+      if (exclusion[i] !== 0) continue;
+      exclusion[i] = ExclusionReason.saturation;
+      marked++;
+    }
   } else saturationCount = 0;
   let topCurrent = 0;
   for (let i = 0; i < n; i++) if (exclusion[i] === 0 && signedCurrent[i] > topCurrent) topCurrent = signedCurrent[i];
@@ -202,7 +223,18 @@ export function fitApproachCurve(input: ApproachCurveInput): ApproachCurveFit {
   }
   if (initialCount < MIN_POINTS) for (let i = 0; i < n; i++) mask[i] = exclusion[i] === 0 && signedCurrent[i] > 0 ? 1 : 0;
   let line = weightedLine(zM, lnCurrent, null, mask);
-  if (!(line.count >= MIN_POINTS && line.slope < 0)) return failed(input, order, zM, lnCurrent, exclusion, line, saturationCount);
+  if (!(line.count >= MIN_POINTS && line.slope < 0)) {
+    // Mostly negative signed currents: the data use the opposite sign convention.
+    let positive = 0;
+    let negative = 0;
+    for (let i = 0; i < n; i++) {
+      if (signedCurrent[i] > 0) positive++;
+      else if (signedCurrent[i] < 0) negative++;
+    }
+    const failure = failed(input, order, zM, lnCurrent, exclusion, line, saturationCount);
+    if (negative > 4 * positive) failure.message = OPPOSITE_SIGN_MESSAGE(input.biasV);
+    return failure;
+  }
 
   // Noise floor σ: robust scatter of I − Î in the tail, unless given.
   let floorA = input.noise?.floorA ?? Number.NaN;
@@ -230,15 +262,19 @@ export function fitApproachCurve(input: ApproachCurveInput): ApproachCurveFit {
       exclusion[i] = lost ? ExclusionReason.noiseFloor : ExclusionReason.used;
       if (lost) noiseFloorCount++;
     }
-    // Relative noise from the ln I scatter where the floor is negligible, unless given (once: the
-    // second pass moves the line by a fraction of its error, which leaves this scale unchanged).
-    if (pass === 0 && !Number.isFinite(input.noise?.relative ?? Number.NaN)) {
+    // Relative noise from the ln I scatter where the floor is negligible (30 σ_floor above it, or
+    // 10 σ_floor when too few points are that high), against the current line, unless given.
+    if (!Number.isFinite(input.noise?.relative ?? Number.NaN)) {
       let count = 0;
-      const cleanLn = floorA > 0 ? Math.log(10 * floorA) : -Infinity;
-      for (let i = 0; i < n; i++) {
-        if (exclusion[i] !== 0) continue;
-        const predictedLn = line.intercept + line.slope * zM[i];
-        if (predictedLn > cleanLn) scratch[count++] = Math.abs(lnCurrent[i] - predictedLn);
+      for (const multiple of CLEAN_FLOOR_MULTIPLES) {
+        count = 0;
+        const cleanLn = floorA > 0 ? Math.log(multiple * floorA) : -Infinity;
+        for (let i = 0; i < n; i++) {
+          if (exclusion[i] !== 0) continue;
+          const predictedLn = line.intercept + line.slope * zM[i];
+          if (predictedLn > cleanLn) scratch[count++] = Math.abs(lnCurrent[i] - predictedLn);
+        }
+        if (count >= 5) break;
       }
       relativeNoise = count >= 5 ? Math.max(1e-6, MAD_TO_SIGMA * selectMedian(scratch, count)) : 0.01;
     }
@@ -271,7 +307,11 @@ function ascendingOrder(zM: Float64Array): Int32Array {
     if (!(zM[i] < zM[i - 1])) decreasing = false;
   }
   for (let i = 0; i < n; i++) order[i] = decreasing ? n - 1 - i : i;
-  if (!increasing && !decreasing) order.sort((a, b) => zM[a] - zM[b] || a - b);
+  if (!increasing && !decreasing) {
+    // Non-finite z sort last (they are excluded as invalid), the rest ascending, ties by index.
+    const key = (i: number) => (Number.isFinite(zM[i]) ? zM[i] : Infinity);
+    order.sort((a, b) => key(a) - key(b) || a - b);
+  }
   return order;
 }
 
@@ -447,7 +487,7 @@ function failed(
   return {
     status: tooFew ? 'too-few-points' : 'no-decay',
     message: tooFew
-      ? `only ${line.count} usable points (need ${MIN_POINTS}) after leaving out saturated, invalid and noise-floor points`
+      ? `only ${line.count} usable points (need ${MIN_POINTS}) after leaving out points outside the window, invalid, saturated and noise-floor points`
       : `current does not fall with z (slope ${line.slope.toExponential(3)} per m); check the z direction or the calibration`,
     order,
     zM,

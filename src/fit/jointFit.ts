@@ -28,8 +28,8 @@ export interface UncertaintyNarrowing {
   /**
    * How many times narrower the joint error bar is, on relative errors (σ/|value| of each fit, so
    * two fits at different values compare fairly; for the asymmetry, which may be near zero, on
-   * absolute errors). NaN when the lone fit has no finite error or lies more than 3 joint σ from
-   * the joint value (the two do not describe the same optimum; see `note`).
+   * absolute errors). NaN when the lone fit has no finite error or the two values differ by more
+   * than 3 combined σ (they do not describe the same optimum; see `note`).
    */
   factor: number;
   note: string;
@@ -57,7 +57,8 @@ export function jointFit(input: JointFitInput): JointFit {
   const used: number[] = [];
   for (let i = 0; i < izFit.zM.length; i++) if (izFit.exclusion[i] === 0) used.push(i);
   const zUsed = Float64Array.from(used, (i) => izFit.zM[i]);
-  const lnUsed = Float64Array.from(used, (i) => izFit.lnCurrent[i]);
+  // ln I with the floor bias removed, as in the lone fit (+½(σ_floor/Î)², approachCurveFit.ts).
+  const lnUsed = Float64Array.from(used, (i) => izFit.lnCurrent[i] + 0.5 * (izFit.noiseFloorA / Math.exp(izFit.fittedLnCurrent[i])) ** 2);
   const lnWeights = Float64Array.from(used, (i) => {
     const predicted = Math.exp(izFit.fittedLnCurrent[i]);
     return 1 / Math.sqrt(izFit.relativeNoise ** 2 + (izFit.noiseFloorA / predicted) ** 2);
@@ -184,8 +185,8 @@ function narrowingOf(
 ): UncertaintyNarrowing {
   const base = { quantity, separate: loneError, joint: jointError };
   if (!(Number.isFinite(loneError) && loneError > 0)) return { ...base, factor: Number.NaN, note: 'the lone I(V) fit gives no finite error bar (a parameter on a bound)' };
-  if (Math.abs(lone - joint) > 3 * jointError) {
-    return { ...base, factor: Number.NaN, note: 'the lone I(V) optimum lies more than 3σ from the joint one: its error bar describes another point of the valley' };
+  if (Math.abs(lone - joint) > 3 * Math.hypot(loneError, jointError)) {
+    return { ...base, factor: Number.NaN, note: 'the lone I(V) and joint optima differ by more than 3 combined σ: the lone error bar describes another point of the valley' };
   }
   const relative = quantity !== 'asymmetryEV';
   const factor = relative ? loneError / Math.abs(lone) / (jointError / Math.abs(joint)) : loneError / jointError;

@@ -42,8 +42,11 @@ export const RESULT_COLUMNS: readonly ResultColumn<CurveResult>[] = [
   { header: 'joint mean barrier (eV)', value: (r) => r.joint?.meanBarrierEV ?? null },
   { header: 'joint mean barrier err (eV)', value: (r) => r.joint?.meanBarrierErrEV ?? null },
   { header: 'joint phi1 (eV)', value: (r) => r.joint?.phi1EV ?? null },
+  { header: 'joint phi1 err (eV)', value: (r) => r.joint?.phi1ErrEV ?? null },
   { header: 'joint phi2 (eV)', value: (r) => r.joint?.phi2EV ?? null },
+  { header: 'joint phi2 err (eV)', value: (r) => r.joint?.phi2ErrEV ?? null },
   { header: 'joint width (nm)', value: (r) => r.joint?.widthNm ?? null },
+  { header: 'joint width err (nm)', value: (r) => r.joint?.widthErrNm ?? null },
   { header: 'flags', value: (r) => r.flags.map((f) => f.code).join(' ') },
   { header: 'flag reasons', value: (r) => r.flags.map((f) => `${f.code}: ${f.reason}`).join(' | ') },
 ];

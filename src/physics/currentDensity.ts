@@ -24,10 +24,11 @@ const breakpoints = [0, 0];
 const shapeGradient = new Float64Array(2);
 
 /**
+ * (Module-private: the returned breakpoints are a shared array, overwritten by the next call.)
  * Decay rates of the transmission with energy for the grid layout: |∂γ/∂ε| at the upper Fermi level
  * and at the bottom of the integration range (eV⁻¹).
  */
-export function trapezoidDecayRates(
+function trapezoidDecayRates(
   junction: Junction,
   biasV: number,
 ): { decayRatePerEV: number; slowestDecayRatePerEV: number; breakpointsEV: readonly number[] } {

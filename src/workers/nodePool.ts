@@ -12,7 +12,11 @@ export function nodeAnalysisWorker(): WorkerPort {
   return {
     postMessage: (message) => worker.postMessage(message),
     onMessage: (listener) => worker.on('message', listener),
-    onError: (listener) => worker.on('error', listener),
+    onError: (listener) => {
+      worker.on('error', listener);
+      worker.on('messageerror', listener);
+      worker.on('exit', (code) => listener(new Error(`worker thread exited with code ${code}`)));
+    },
     terminate: () => void worker.terminate(),
   };
 }

@@ -5,7 +5,7 @@
  * Each task is computed from its own input alone, so the results do not depend on the pool size.
  */
 
-/** The part of a worker the pool uses (a DOM Worker or a wrapped worker_threads Worker). */
+/** The part of a worker the pool uses (a DOM Worker or a wrapped worker_threads Worker); onError also covers a worker that exits. */
 export interface WorkerPort {
   postMessage(message: unknown): void;
   onMessage(listener: (message: unknown) => void): void;
@@ -66,27 +66,48 @@ export async function runPool<Task, Result>(
     const onAbort = () => finish(new CancelledError(done, total));
     if (options.signal?.aborted) return finish(new CancelledError(0, total));
     options.signal?.addEventListener('abort', onAbort);
+    // The task each worker is running (−1: idle), so a worker that dies can fail just that task.
+    const inFlight = new Map<WorkerPort, number>();
     const dispatch = (worker: WorkerPort) => {
       if (finished) return;
-      if (next >= total) return;
+      if (next >= total) {
+        inFlight.set(worker, -1);
+        return;
+      }
       const id = next++;
+      inFlight.set(worker, id);
       worker.postMessage({ id, task: tasks[id] } satisfies TaskMessage<Task>);
     };
-    for (let w = 0; w < Math.min(size, total); w++) {
+    const record = (id: number, result: Result | Error) => {
+      results[id] = result;
+      done++;
+      options.onProgress?.(done, total);
+      if (done === total) finish();
+    };
+    const start = () => {
       const worker = createWorker();
       workers.push(worker);
+      inFlight.set(worker, -1);
       worker.onMessage((message) => {
         if (finished) return;
         const reply = message as ReplyMessage<Result>;
-        results[reply.id] = 'error' in reply ? new Error(reply.error) : reply.result;
-        done++;
-        options.onProgress?.(done, total);
-        if (done === total) finish();
-        else dispatch(worker);
+        inFlight.set(worker, -1);
+        record(reply.id, 'error' in reply ? new Error(reply.error) : reply.result);
+        dispatch(worker);
       });
-      worker.onError((error) => finish(new Error(`worker failed: ${error.message}`)));
-      dispatch(worker);
-    }
+      // A worker that dies fails only the task it was running; a fresh worker takes its place.
+      worker.onError((error) => {
+        if (finished || !inFlight.has(worker)) return;
+        const id = inFlight.get(worker) as number;
+        inFlight.delete(worker);
+        worker.terminate();
+        workers.splice(workers.indexOf(worker), 1);
+        if (id >= 0) record(id, new Error(`worker failed on task ${id}: ${error.message}`));
+        if (!finished && next < total) dispatch(start());
+      });
+      return worker;
+    };
+    for (let w = 0; w < Math.min(size, total); w++) dispatch(start());
   });
 }
 

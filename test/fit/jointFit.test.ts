@@ -109,8 +109,8 @@ describe('jointFit(I(z) + I(V) of one junction)', () => {
       expect(narrowing.joint).toBe(joint.estimate.meanBarrierErrorEV);
       if (!Number.isFinite(narrowing.factor)) {
         // no comparison: the lone fit ran onto a bound (no finite error), or its optimum lies more
-        // than 3 joint σ away (its error bar describes another point of the χ² valley)
-        const far = Math.abs(lone.meanBarrierEV - joint.estimate.meanBarrierEV) > 3 * joint.estimate.meanBarrierErrorEV;
+        // than 3 combined σ away (its error bar describes another point of the χ² valley)
+        const far = Math.abs(lone.meanBarrierEV - joint.estimate.meanBarrierEV) > 3 * Math.hypot(lone.meanBarrierErrorEV, joint.estimate.meanBarrierErrorEV);
         expect(lone.status === 'stuck-at-bound' || far).toBe(true);
         expect(narrowing.note).not.toBe('');
         continue;
