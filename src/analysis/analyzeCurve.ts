@@ -96,9 +96,22 @@ export interface CurveResult {
 
 const finiteOrNull = (value: number): number | null => (Number.isFinite(value) ? value : null);
 
+/**
+ * A curve's metadata entry by key, ignoring case ('Run' and 'run' are one key): the importer keeps
+ * unknown keys as written and gives known quantities fixed keys (biasVoltage, setpointCurrent, …).
+ */
+export function metadataEntry(curve: Pick<CurveInput, 'metadata'>, key: string): { raw: string; value?: number; unit?: string } | undefined {
+  const metadata = curve.metadata;
+  if (!metadata) return undefined;
+  if (metadata[key]) return metadata[key];
+  const lower = key.toLowerCase();
+  for (const [name, entry] of Object.entries(metadata)) if (name.toLowerCase() === lower) return entry;
+  return undefined;
+}
+
 /** The run a curve belongs to: its `run` metadata entry, else the tip and sample entries, else its file. */
 export function runOf(curve: CurveInput): string {
-  const entry = (key: string) => curve.metadata?.[key]?.raw?.trim();
+  const entry = (key: string) => metadataEntry(curve, key)?.raw?.trim();
   return entry('run') || [entry('tip'), entry('sample')].filter(Boolean).join(' / ') || curve.fileName;
 }
 
@@ -110,7 +123,7 @@ function areaConstraint(settings: AnalysisSettings): AreaConstraint {
 
 function biasOf(curve: CurveInput, settings: AnalysisSettings): number {
   if (curve.fixedBiasV !== undefined && Number.isFinite(curve.fixedBiasV) && curve.fixedBiasV !== 0) return curve.fixedBiasV;
-  const meta = curve.metadata?.bias?.value;
+  const meta = (metadataEntry(curve, 'biasVoltage') ?? metadataEntry(curve, 'bias'))?.value;
   return meta !== undefined && Number.isFinite(meta) && meta !== 0 ? meta : settings.defaultBiasV;
 }
 
@@ -176,7 +189,7 @@ function baseRecord(curve: CurveInput, settings: AnalysisSettings): CurveResult 
  * z, known noise and preamp limit, setpoint, manual window): shared by analyzeCurve and the joint fit.
  */
 export function approachFitInput(curve: CurveInput, settings: AnalysisSettings): ApproachCurveInput {
-  const setpoint = curve.metadata?.setpointCurrent?.value;
+  const setpoint = metadataEntry(curve, 'setpointCurrent')?.value;
   return {
     zM: settings.piezoCalibration === 1 ? curve.x : Float64Array.from(curve.x, (z) => z * settings.piezoCalibration),
     currentA: curve.current,

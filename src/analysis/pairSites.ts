@@ -1,5 +1,5 @@
 import type { CurveInput } from './analyzeCurve.ts';
-import { runOf } from './analyzeCurve.ts';
+import { metadataEntry, runOf } from './analyzeCurve.ts';
 
 /** An approach curve and a spectrum taken at the same site, and how they were matched. */
 export interface SitePair {
@@ -20,7 +20,7 @@ const SAME_POSITION_M = 0.5e-9;
 export function pairSites(curves: readonly CurveInput[]): SitePair[] {
   const pairs: SitePair[] = [];
   const used = new Set<number>();
-  const site = (c: CurveInput) => c.metadata?.site?.raw?.trim() || '';
+  const site = (c: CurveInput) => metadataEntry(c, 'site')?.raw?.trim() || '';
   const approaches = curves.map((c, i) => i).filter((i) => curves[i].kind === 'iz' && curves[i].segment !== 'retract');
   const spectra = curves.map((c, i) => i).filter((i) => curves[i].kind === 'iv');
   const rules: [SitePair['by'], (a: CurveInput, s: CurveInput) => boolean][] = [

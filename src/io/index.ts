@@ -45,3 +45,6 @@ export { parseUnit, parseUnitAs, SI_UNIT_OF, type ParsedUnit, type UnitDimension
 export { parseHeaderCell, type HeaderCell } from './parseHeaderCell.ts';
 export { KNOWN_METADATA_KEYS } from './readMetadata.ts';
 export { delimiterName } from './splitCells.ts';
+export { writeReport } from './reportHtml.ts';
+export { stripBoxPlotSvg, driftPlotSvg, gridMapSvg, REPORT_PLOT_COLOURS } from './reportSvg.ts';
+export { escapeHtml } from './reportFormat.ts';
