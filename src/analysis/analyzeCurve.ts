@@ -303,7 +303,7 @@ function analyzeApproach(curve: CurveInput, settings: AnalysisSettings): CurveRe
   const usedFitted: number[] = [];
   for (let k = 0; k < fit.zM.length; k++) if (fit.exclusion[k] === 0) usedFitted.push(fit.fittedLnCurrent[k]);
   const metrics = qualityMetrics({ observed: usedLn, fitted: usedFitted, weights: usedWeights, nParams: 2 });
-  record.quality = qualityRecord(metrics, metrics.points);
+  record.quality = qualityRecord(metrics, fit.points);
   // The step test runs on ln I where the noise is even (well above the floor), with a quadratic
   // trend so that curvature is not taken for a step; the curvature test then allows for a step
   // where one was found.
