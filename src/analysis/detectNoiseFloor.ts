@@ -1,3 +1,4 @@
+import { MAD_TO_SIGMA } from '../fit/index.ts';
 import { medianAbsoluteDeviation } from 'simple-statistics';
 import { FLAG_THRESHOLDS } from './flagThresholds.ts';
 import { requireFiniteArray, requirePositive, describeValue } from './validate.ts';
@@ -20,8 +21,6 @@ export interface NoiseFloorFinding {
   readonly estimated: boolean;
 }
 
-/** 1/Φ⁻¹(3/4): makes the MAD a consistent estimator of σ for normal data. */
-const MAD_TO_SIGMA = 1.482602218505602;
 
 /**
  * Find the points of an I(z) sweep that sit in the additive noise floor, where ln|I| no longer

@@ -1,3 +1,4 @@
+import { MAD_TO_SIGMA } from '../fit/index.ts';
 import { median, medianAbsoluteDeviation } from 'simple-statistics';
 import { CONDUCTANCE_QUANTUM_S } from '../physics/index.ts';
 import { FLAG_THRESHOLDS } from './flagThresholds.ts';
@@ -34,8 +35,6 @@ export interface PointContactFinding {
   readonly pointIndices: number[];
 }
 
-/** 1/Φ⁻¹(3/4): MAD → σ for normal data. */
-const MAD_TO_SIGMA = 1.482602218505602;
 
 /**
  * Find point contact or a jump to contact in a sweep.

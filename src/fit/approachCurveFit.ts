@@ -4,7 +4,7 @@ import {
   apparentBarrierFromSlopeEV,
   prefactorCorrectedBarrierEV,
 } from '../physics/index.ts';
-import { selectMedian } from './selectMedian.ts';
+import { MAD_TO_SIGMA, selectMedian } from './selectMedian.ts';
 import { weightedLine, type LineFit } from './weightedLine.ts';
 
 /**
@@ -107,7 +107,6 @@ const OPPOSITE_SIGN_MESSAGE = (biasV: number) =>
 
 const TAIL_FRACTION_OF_MAX = 0.02;
 const MIN_POINTS = 4;
-const MAD_TO_SIGMA = 1.482602218505602; // 1/Φ⁻¹(3/4), normal consistency of the MAD [textbook]
 
 // Work arrays shared by successive fits (never returned), grown as needed: a batch of fits then
 // allocates only its outputs.

@@ -1,3 +1,6 @@
+/** 1/Φ⁻¹(3/4) = 1.4826…: scales the median absolute deviation to σ for normal data (textbook; e.g. Hampel 1974 [from memory]). */
+export const MAD_TO_SIGMA = 1.482602218505602;
+
 /**
  * Median of the first `count` entries of `values`, by quickselect (C. A. R. Hoare, Commun. ACM 4, 321
  * (1961), "Algorithm 65: Find"). Reorders those entries in place; O(count) on average; no allocation.

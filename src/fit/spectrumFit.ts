@@ -11,7 +11,7 @@ import {
 } from '../physics/index.ts';
 import type { Junction } from '../physics/index.ts';
 import { polynomialFit, polynomialValue } from './polynomialFit.ts';
-import { selectMedian } from './selectMedian.ts';
+import { MAD_TO_SIGMA, selectMedian } from './selectMedian.ts';
 import { createSolver, type LeastSquaresProblem, type SolverOptions, type SolverResult } from './solver.ts';
 
 /**
@@ -101,7 +101,6 @@ const START_MEAN_BARRIER_EV = 4;
 const MULTI_START_ASYMMETRY_EV = 1.5;
 const FREE_AREA_NOTE =
   'a lone I(V) with a free area does not pin the barrier (barrier height, width and area trade off along a shallow χ² valley), so its error bars are not reliable; tie the area to the tip radius or fit an I(z) at the same site jointly'; // typical clean-metal barrier, used only to start the BDR inverse (common practice, no source)
-const MAD_TO_SIGMA = 1.482602218505602;
 const SOLVER_OPTIONS: SolverOptions = { maxIterations: 200, functionTolerance: 1e-12, stepTolerance: 1e-10, gradientTolerance: 1e-12 };
 
 /**

@@ -8,39 +8,19 @@ import {
   compareRuns,
   FLAG_CODES,
   MANN_WHITNEY_EXACT_MAXIMUM_TOTAL,
-  type CurveGroup,
-  type CurveGrouping,
-  type CurveMetadataTable,
   type CurveResult,
-  type GridColourMapName,
   type GroupComparison,
-  type GroupQuantityName,
   type GroupReport,
   type RunComparison,
+  type CompareRunsInput,
 } from '../analysis/index.ts';
 import { decimalsForUncertainty, escapeHtml, formatFixed, formatPValue, formatSignificant } from './reportFormat.ts';
 import { driftPlotSvg, gridMapSvg, REPORT_PLOT_COLOURS, stripBoxPlotSvg } from './reportSvg.ts';
 
-/** What a report is made from. */
-export interface ReportInput {
+/** What a report is made from: a comparison's input plus what the page shows about it. */
+export interface ReportInput extends CompareRunsInput {
   /** The analysis settings the results were fitted with (shown as a table). */
   readonly settings: unknown;
-  readonly results: readonly CurveResult[];
-  /** Default 'apparentBarrierEV'. */
-  readonly quantity?: GroupQuantityName;
-  /** Default by run; ignored when `groups` is given. */
-  readonly grouping?: CurveGrouping;
-  /** Groups made elsewhere (e.g. edited in the dashboard). */
-  readonly groups?: readonly CurveGroup[];
-  /** Metadata text per curve, for grouping by a metadata key. */
-  readonly metadata?: CurveMetadataTable;
-  /** Use flagged curves in the statistics (default false). */
-  readonly includeFlagged?: boolean;
-  /** Level of every confidence interval (default 0.95). */
-  readonly confidenceLevel?: number;
-  /** Acquisition times (s) per curve id for the drift plots. */
-  readonly timeSByCurve?: Readonly<Record<string, number>>;
-  readonly colourMap?: GridColourMapName;
   /** Heading of the report; default 'Burrow report: <quantity> by <grouping>'. */
   readonly title?: string;
   /** When it was made, as text (e.g. an ISO 8601 time); omitted when absent, so tests stay clock-free. */
