@@ -15,6 +15,7 @@ import { formatValue, plural } from './format.ts';
 import type { SessionDb } from './sessionDb.ts';
 import { editSettings, fieldPath, type SettingsField } from './settingsForm.ts';
 import {
+  cleanTags,
   DEFAULT_FILTERS,
   SESSION_SCHEMA_VERSION,
   type CurveFilters,
@@ -75,6 +76,8 @@ export interface SessionInit {
   mappings?: MappingMemoryJSON;
   manualWindows?: Record<string, ManualWindow>;
   view?: ViewState;
+  /** User tags by curve id. */
+  tags?: Record<string, string>;
 }
 
 /** A file to import with the key it will have. */
@@ -136,6 +139,7 @@ export class Session {
   #stored = $state.raw<ReadonlyMap<string, StoredResult>>(new Map());
   #settings = $state.raw<AnalysisSettings>({ ...DEFAULT_SETTINGS, runOverrides: {} });
   #windows = $state.raw<Record<string, ManualWindow>>({});
+  #tags = $state.raw<Record<string, string>>({});
   #mappings: MappingMemory;
   #texts = new Map<string, string>();
 
@@ -167,6 +171,7 @@ export class Session {
     if (init.settings) this.#settings = init.settings;
     this.#mappings = init.mappings ? MappingMemory.fromJSON(init.mappings) : new MappingMemory();
     if (init.manualWindows) this.#windows = init.manualWindows;
+    if (init.tags) this.#tags = cleanTags(init.tags);
     if (init.view) {
       this.selectedId = init.view.selectedCurveId;
       this.tab = init.view.tab;
@@ -188,6 +193,10 @@ export class Session {
   }
   get manualWindows(): Readonly<Record<string, ManualWindow>> {
     return this.#windows;
+  }
+  /** User tags by curve id (grouping by tag); curves without a tag are absent. */
+  get tags(): Readonly<Record<string, string>> {
+    return this.#tags;
   }
   get mappingMemory(): MappingMemoryJSON {
     return this.#mappings.toJSON();
@@ -425,6 +434,7 @@ export class Session {
     for (const id of ids) stored.delete(id);
     this.#stored = stored;
     this.#windows = Object.fromEntries(Object.entries(this.#windows).filter(([id]) => !ids.has(id)));
+    this.#tags = Object.fromEntries(Object.entries(this.#tags).filter(([id]) => !ids.has(id)));
     this.#texts.delete(fileKey);
     this.#columns.delete(fileKey);
     if (this.selectedId !== null && ids.has(this.selectedId)) this.selectedId = this.#curves[0]?.id ?? null;
@@ -476,6 +486,19 @@ export class Session {
     this.#windows = next;
     this.scheduleSave();
     return this.fitStale();
+  }
+
+  /** Tag curves (trimmed text; an empty tag removes theirs). Unknown curve ids are ignored. */
+  setTag(curveIds: readonly string[], tag: string): void {
+    const text = tag.trim();
+    const next = { ...this.#tags };
+    for (const id of curveIds) {
+      if (!this.curveById.has(id)) continue;
+      if (text) next[id] = text;
+      else delete next[id];
+    }
+    this.#tags = next;
+    this.scheduleSave();
   }
 
   // ---- fitting ---------------------------------------------------------------------------
@@ -609,6 +632,7 @@ export class Session {
       manualWindows: { ...this.#windows },
       results: this.#curves.map((c) => this.#stored.get(c.id)).filter((s): s is StoredResult => s !== undefined),
       view: { selectedCurveId: this.selectedId, tab: this.tab, filters: $state.snapshot(this.filters) },
+      tags: { ...this.#tags },
     };
   }
 

@@ -1,13 +1,13 @@
 /**
  * A whole session in one JSON file, to move it between machines or keep it beside a paper:
  * { format: 'burrow-session', version: 1, name, createdAt, exportedAt, settings, mappings,
- *   manualWindows, files: [{ key, fileName, mapping?, text }], results, view }.
+ *   manualWindows, files: [{ key, fileName, mapping?, text }], results, view, tags? }.
  * Reading checks every part and names what is wrong; settings go through validateSettings and the
  * mapping answers through MappingMemory.fromJSON, as when they are typed in. Pure.
  */
 import { validateSettings, type AnalysisSettings } from '../fit/index.ts';
 import { MappingMemory, type MappingAnswer, type MappingMemoryJSON } from '../io/index.ts';
-import { DEFAULT_FILTERS, type ManualWindow, type StoredResult, type ViewState } from './types.ts';
+import { cleanTags, DEFAULT_FILTERS, type ManualWindow, type StoredResult, type ViewState } from './types.ts';
 
 /** A session bundle as written to and read from a file. */
 export interface SessionBundle {
@@ -22,6 +22,8 @@ export interface SessionBundle {
   files: { key: string; fileName: string; mapping?: MappingAnswer; text: string }[];
   results: StoredResult[];
   view: ViewState;
+  /** User tags by curve id (absent in bundles written before tags). */
+  tags?: Record<string, string>;
 }
 
 /**
@@ -115,6 +117,7 @@ export function readBundle(text: string): SessionBundle {
     files,
     results,
     view: { selectedCurveId: typeof view.selectedCurveId === 'string' ? view.selectedCurveId : null, tab: view.tab ?? 'curve', filters: { ...DEFAULT_FILTERS, ...(view.filters ?? {}) } },
+    ...(isObject(raw.tags) ? { tags: cleanTags(raw.tags) } : {}),
   };
 }
 

@@ -47,7 +47,7 @@ export interface ViewState {
 }
 
 /** The dashboard's main tabs. */
-export type DashboardTab = 'curve' | 'table' | 'settings' | 'files';
+export type DashboardTab = 'curve' | 'table' | 'settings' | 'files' | 'compare';
 
 /** Curve browser filters: kind, flag code ('any' = flagged at all, 'none' = clean), run. */
 export interface CurveFilters {
@@ -58,6 +58,19 @@ export interface CurveFilters {
 }
 
 export const DEFAULT_FILTERS: Readonly<CurveFilters> = Object.freeze({ kind: 'all', flag: 'all', run: 'all', text: '' });
+
+/**
+ * Tags as stored or read from a bundle: string values only, trimmed, empty ones dropped.
+ * @example cleanTags({ 'a.csv#0/single': ' terrace ', b: 3 }) // { 'a.csv#0/single': 'terrace' }
+ */
+export function cleanTags(tags: unknown): Record<string, string> {
+  const clean: Record<string, string> = {};
+  if (tags === null || typeof tags !== 'object' || Array.isArray(tags)) return clean;
+  for (const [id, tag] of Object.entries(tags as Record<string, unknown>)) {
+    if (typeof tag === 'string' && tag.trim()) clean[id] = tag.trim();
+  }
+  return clean;
+}
 
 /** Version of the stored session record; bump with a migration when the shape changes. */
 export const SESSION_SCHEMA_VERSION = 1;
@@ -79,6 +92,8 @@ export interface SessionRecord {
   manualWindows: Record<string, ManualWindow>;
   results: StoredResult[];
   view: ViewState;
+  /** User tags by curve id, for grouping by tag (absent in records saved before tags: read as none). */
+  tags?: Record<string, string>;
 }
 
 /** The list entry of a stored session. */

@@ -64,7 +64,7 @@ export class Workspace {
     for (const file of record.files) files.push({ key: file.key, text: await db.getText(record.id, file.key), ...(file.mapping ? { mapping: file.mapping } : {}) });
     const session = await Session.restore(
       this.#env,
-      { id: record.id, name: record.name, createdAt: record.createdAt, settings: record.settings, mappings: record.mappings, manualWindows: record.manualWindows, view: record.view },
+      { id: record.id, name: record.name, createdAt: record.createdAt, settings: record.settings, mappings: record.mappings, manualWindows: record.manualWindows, view: record.view, tags: record.tags ?? {} },
       files,
       record.results,
     );
@@ -143,6 +143,7 @@ export class Workspace {
       files: record.files.map((f) => ({ ...f, text: session.textOf(f.key) ?? '' })),
       results: record.results,
       view: record.view,
+      tags: record.tags ?? {},
     };
     return writeBundle(bundle);
   }
@@ -166,6 +167,7 @@ export class Workspace {
         mappings: bundle.mappings,
         manualWindows: bundle.manualWindows,
         view: { ...bundle.view, filters: { ...DEFAULT_FILTERS, ...bundle.view.filters } },
+        tags: bundle.tags ?? {},
       },
       bundle.files.map((f) => ({ key: f.key, text: f.text, ...(f.mapping ? { mapping: f.mapping } : {}) })),
       bundle.results,

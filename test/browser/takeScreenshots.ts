@@ -1,12 +1,14 @@
 /**
  * npm run screenshots: the main views of the dashboard at 1366×768, saved to static/screenshots/
  * for the README. Builds the app, opens the demo session in Debian's Chromium and walks through it.
+ * File names given as arguments (npm run screenshots -- dashboard-compare.png) save only those.
  */
 import { mkdirSync, readFileSync } from 'node:fs';
 import type { Page } from 'playwright-core';
 import { buildAndServe, launchBrowser } from './harness.ts';
 
 const out = new URL('../../static/screenshots/', import.meta.url);
+const only = process.argv.slice(2);
 mkdirSync(out, { recursive: true });
 
 async function waitAllFitted(page: Page): Promise<void> {
@@ -32,6 +34,7 @@ async function openCurve(page: Page, curveId: string): Promise<void> {
 }
 
 async function shot(page: Page, name: string): Promise<void> {
+  if (only.length > 0 && !only.includes(name)) return;
   await page.mouse.move(1360, 760);
   await page.waitForTimeout(250);
   await page.screenshot({ path: new URL(name, out).pathname });
@@ -44,6 +47,10 @@ try {
   const page = await browser.context.newPage();
   await page.goto(app.url);
   await waitAllFitted(page);
+
+  await page.getByTestId('tab-compare').click();
+  await page.getByTestId('compare-panel').waitFor();
+  await shot(page, 'dashboard-compare.png');
 
   await openCurve(page, 'approach-A-gold-clipped.csv#0/single');
   await page.getByRole('button', { name: /show \d+ points/ }).first().click();
