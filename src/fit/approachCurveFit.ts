@@ -16,8 +16,9 @@ import { weightedLine, type LineFit } from './weightedLine.ts';
  * gap to point contact by extrapolating G = I/V to G0 = 2e²/h (physics.md §3).
  *
  * Exclusions, decided in this order and kept per point (see `ExclusionReason`):
- * 1. outside a manual window; 2. non-finite; 3. saturation: a run of ≥ 2 points from the closest
- *    end within SATURATION_RELATIVE_TOLERANCE of the largest |I| (or ≥ 1 at a known limit); 4. noise floor: where the fitted
+ * 1. outside a manual window; 2. non-finite; 3. saturation: ≥ 2 points at the rail (within
+ *    SATURATION_RELATIVE_TOLERANCE of the largest |I|, or at a known limit: ≥ 1) in a run from the
+ *    closest end that ends at three consecutive points off the rail; 4. noise floor: where the fitted
  *    current is below `floorSignalRatio` × the floor σ (estimated from the tail when not given), and
  *    points whose current has the wrong sign.
  */
@@ -198,17 +199,21 @@ export function fitApproachCurve(input: ApproachCurveInput): ApproachCurveFit {
   // a contiguous run from that end, at a known limit or within the tolerance of the largest |I|.
   const known = input.saturationLimitA !== undefined;
   const clipLevel = known ? Math.abs(input.saturationLimitA as number) : maxCurrent;
+  // The run may be interleaved near its end, where noise takes the true current above and below
+  // the rail: it ends at the first three consecutive points off the rail.
   let saturationCount = 0;
-  for (let i = 0; i < n; i++) {
+  let runEnd = -1;
+  for (let i = 0, off = 0; i < n && off < 3; i++) {
     if (exclusion[i] !== 0) continue;
-    if (!(signedCurrent[i] >= clipLevel * (1 - SATURATION_RELATIVE_TOLERANCE))) break;
-    saturationCount++;
+    if (signedCurrent[i] >= clipLevel * (1 - SATURATION_RELATIVE_TOLERANCE)) {
+      saturationCount++;
+      runEnd = i;
+      off = 0;
+    } else off++;
   }
   if (saturationCount >= 2 || (known && saturationCount >= 1)) {
-    for (let i = 0, marked = 0; i < n && marked < saturationCount; i++) {
-      if (exclusion[i] !== 0) continue;
-      exclusion[i] = ExclusionReason.saturation;
-      marked++;
+    for (let i = 0; i <= runEnd; i++) {
+      if (exclusion[i] === 0 && signedCurrent[i] >= clipLevel * (1 - SATURATION_RELATIVE_TOLERANCE)) exclusion[i] = ExclusionReason.saturation;
     }
   } else saturationCount = 0;
   let topCurrent = 0;
