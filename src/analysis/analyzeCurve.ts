@@ -206,12 +206,17 @@ export function approachFitInput(curve: CurveInput, settings: AnalysisSettings):
  * saturation) left out; `keptIndex` maps the kept points back to the curve.
  */
 export function spectrumFitInput(curve: CurveInput, settings: AnalysisSettings): { input: SpectrumInput; saturation: SaturationFinding | null; keptIndex: number[] } {
-  const saturation = detectSaturation(curve.current, { knownLimitA: settings.saturationLimitA ?? undefined });
+  // Non-finite points never reach the detectors or the fit (the importer reports them; an API
+  // caller may still pass them); clipped points are left out of the fit.
+  const finite: number[] = [];
+  for (let i = 0; i < curve.x.length; i++) if (Number.isFinite(curve.x[i]) && Number.isFinite(curve.current[i])) finite.push(i);
+  const found = detectSaturation(Float64Array.from(finite, (i) => curve.current[i]), { knownLimitA: settings.saturationLimitA ?? undefined });
+  const saturation = found ? { ...found, pointIndices: found.pointIndices.map((k) => finite[k]) } : null;
   const dropped = new Set(saturation?.pointIndices ?? []);
-  const keptIndex: number[] = [];
-  for (let i = 0; i < curve.x.length; i++) if (!dropped.has(i)) keptIndex.push(i);
-  const biasV = dropped.size ? Float64Array.from(keptIndex, (i) => curve.x[i]) : curve.x;
-  const currentA = dropped.size ? Float64Array.from(keptIndex, (i) => curve.current[i]) : curve.current;
+  const keptIndex = finite.filter((i) => !dropped.has(i));
+  const all = keptIndex.length === curve.x.length;
+  const biasV = all ? curve.x : Float64Array.from(keptIndex, (i) => curve.x[i]);
+  const currentA = all ? curve.current : Float64Array.from(keptIndex, (i) => curve.current[i]);
   return {
     input: {
       biasV,
@@ -401,7 +406,8 @@ function analyzeSpectrum(curve: CurveInput, settings: AnalysisSettings): CurveRe
     excludedIndices: saturation?.pointIndices,
     step: residuals.length >= 8 ? detectStepChange(residuals) : null,
     stepSeriesIndices: keptIndex,
-    conductance: { currentA: curve.current, biasV: curve.x },
+    // Non-finite points as zero current: skipped by the contact check, indices kept.
+    conductance: { currentA: Float64Array.from(curve.current, (c) => (Number.isFinite(c) ? c : 0)), biasV: Float64Array.from(curve.x, (v) => (Number.isFinite(v) ? v : 0)) },
   });
   return record;
 }

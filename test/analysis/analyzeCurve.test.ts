@@ -45,3 +45,15 @@ describe('analyzeCurve on clean approach curves', () => {
     expect(flag?.pointIndices).toEqual(expected);
   });
 });
+
+describe('analyzeCurve with non-finite points (API callers)', () => {
+  it('fits a spectrum with a NaN current and reports the points it used', () => {
+    const biasV = Float64Array.from({ length: 101 }, (_, i) => -1 + i * 0.02);
+    // a smooth tunnel-like I(V): I = G0·(V + 0.3 V³), 1 nS
+    const current = Float64Array.from(biasV, (v) => 1e-9 * (v + 0.3 * v ** 3));
+    current[40] = Number.NaN;
+    const result = analyzeCurve({ id: 'iv#0', fileName: 'iv.csv', index: 0, segment: 'single', kind: 'iv', x: biasV, current }, { ...DEFAULT_SETTINGS, tipRadiusNm: 10 });
+    expect(result.message).not.toContain('analysis failed');
+    expect(result.quality.pointsUsed).toBe(100);
+  });
+});
