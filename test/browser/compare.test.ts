@@ -7,7 +7,7 @@
 import { readFileSync } from 'node:fs';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { buildAndServe, launchBrowser, type LaunchedBrowser, type ServedApp } from './harness.ts';
+import { buildAndServe, launchBrowser, waitAllFitted, type LaunchedBrowser, type ServedApp } from './harness.ts';
 
 let app: ServedApp;
 let browser: LaunchedBrowser;
@@ -15,19 +15,6 @@ let page: Page;
 const foreign: string[] = [];
 const consoleErrors: string[] = [];
 
-/** Wait until every curve has a result and no job runs. */
-async function waitAllFitted(minimumCurves = 1): Promise<void> {
-  await page.waitForFunction(
-    (minimum) => {
-      const text = document.querySelector('[data-testid=status-counts]')?.textContent ?? '';
-      const match = /(\d+) curves? · (\d+) fitted/.exec(text);
-      const phase = document.querySelector('[data-testid=progress]')?.getAttribute('data-phase');
-      return match !== null && Number(match[1]) >= minimum && match[1] === match[2] && phase === 'idle' && !document.querySelector('[data-testid=fit-stale]');
-    },
-    minimumCurves,
-    { timeout: 30_000 },
-  );
-}
 
 /** The pairwise row of groups a and b (either order). */
 function pairRow(a: string, b: string) {
@@ -47,7 +34,7 @@ beforeAll(async () => {
   });
   page.on('pageerror', (error) => consoleErrors.push(error.message));
   await page.goto(app.url);
-  await waitAllFitted(50);
+  await waitAllFitted(page, 50);
 }, 120_000);
 
 afterAll(async () => {

@@ -9,7 +9,7 @@ import { readFileSync } from 'node:fs';
 import Papa from 'papaparse';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { buildAndServe, launchBrowser, type LaunchedBrowser, type ServedApp } from './harness.ts';
+import { buildAndServe, launchBrowser, waitAllFitted, type LaunchedBrowser, type ServedApp } from './harness.ts';
 
 const fixturePath = (name: string) => new URL(`../fixtures/import/${name}`, import.meta.url).pathname;
 
@@ -28,19 +28,6 @@ async function counts(): Promise<{ curves: number; fitted: number; flagged: numb
   return { curves: Number(match[1]), fitted: Number(match[2]), flagged: Number(match[3]) };
 }
 
-/** Wait until every curve has a result and no job runs. */
-async function waitAllFitted(minimumCurves = 1): Promise<void> {
-  await page.waitForFunction(
-    (minimum) => {
-      const text = document.querySelector('[data-testid=status-counts]')?.textContent ?? '';
-      const match = /(\d+) curves? · (\d+) fitted/.exec(text);
-      const phase = document.querySelector('[data-testid=progress]')?.getAttribute('data-phase');
-      return match !== null && Number(match[1]) >= minimum && match[1] === match[2] && phase === 'idle' && !document.querySelector('[data-testid=fit-stale]');
-    },
-    minimumCurves,
-    { timeout: 30_000 },
-  );
-}
 
 /** Open one curve through the browser's search box (the list is virtualised). */
 async function openCurve(curveId: string): Promise<void> {
@@ -86,7 +73,7 @@ describe('dashboard in Chromium', () => {
   let demoCurves = 0;
 
   it('the demo session opens already fitted and shows fitted values', async () => {
-    await waitAllFitted(50);
+    await waitAllFitted(page, 50);
     const { curves, flagged } = await counts();
     demoCurves = curves;
     expect(flagged).toBeGreaterThan(0);
@@ -126,7 +113,7 @@ describe('dashboard in Chromium', () => {
 
   it('adding a fixture through the file input adds its curves and fits them', async () => {
     await page.getByTestId('file-input').setInputFiles(fixturePath('sweep-reversal.csv'));
-    await waitAllFitted(demoCurves + 2);
+    await waitAllFitted(page, demoCurves + 2);
     expect((await counts()).curves).toBe(demoCurves + 2);
     await page.getByLabel('Search curves').fill('sweep-reversal');
     await expect.poll(() => page.locator('.row.curve .key').allTextContents()).toEqual([expect.stringMatching(/^φap /), expect.stringMatching(/^φap /)]);
@@ -138,7 +125,7 @@ describe('dashboard in Chromium', () => {
     await page.getByTestId('file-input').setInputFiles(fixturePath('bad-ragged.csv'));
     const notice = page.getByTestId('notice-text').filter({ hasText: 'bad-ragged.csv' });
     await expect.poll(() => notice.textContent()).toMatch(/^bad-ragged\.csv, line 4, column 3: row has 3 cells/);
-    await waitAllFitted(before.curves + 1);
+    await waitAllFitted(page, before.curves + 1);
     // The readable rows of the bad file are one more curve; every loaded curve is still there.
     expect((await counts()).curves).toBe(before.curves + 1);
     await page.getByTestId('tab-files').click();
@@ -153,7 +140,7 @@ describe('dashboard in Chromium', () => {
     for (let i = 0; i < 20; i++) rows.push(`${(0.01 * i).toFixed(2)},${(1000 * Math.exp(-0.2 * i)).toFixed(3)}`);
     const before = await counts();
     await page.getByTestId('file-input').setInputFiles({ name, mimeType: 'text/csv', buffer: Buffer.from(rows.join('\n') + '\n') });
-    await waitAllFitted(before.curves + 1);
+    await waitAllFitted(page, before.curves + 1);
     await page.getByLabel('Search curves').fill('<img');
     await expect.poll(() => page.locator('.row.file').first().textContent()).toBe(name);
     await expect.poll(() => page.locator('.row.run').first().textContent()).toContain('<i>run</i>');
@@ -188,7 +175,7 @@ describe('dashboard in Chromium', () => {
     await tip.fill('4.0');
     await tip.press('Tab');
     await page.waitForFunction(() => document.querySelector('[data-testid=progress]')?.getAttribute('data-phase') === 'fitting', null, { timeout: 10_000 }).catch(() => {});
-    await waitAllFitted(demoCurves);
+    await waitAllFitted(page, demoCurves);
     await page.getByTestId('tab-curve').click();
     await expect.poll(() => page.getByTestId('barrier-diagram').getAttribute('data-phi1'), { timeout: 15_000 }).toBe('4.0000');
     expect(await page.getByTestId('trapezoid').getAttribute('d')).not.toBe(trapezoidBefore);
@@ -244,7 +231,7 @@ describe('dashboard in Chromium', () => {
     await page.mouse.move(left + 0.7 * width, y, { steps: 6 });
     await page.mouse.up();
     await expect.poll(() => page.getByTestId('manual-badge').textContent(), { timeout: 10_000 }).toMatch(/^manual window /);
-    await waitAllFitted(demoCurves);
+    await waitAllFitted(page, demoCurves);
     const windowText = await page.getByTestId('manual-badge').textContent();
     const barrier = await page.locator('[data-param="φ_ap"]').textContent();
     const status = await page.getByTestId('status-counts').textContent();
@@ -254,7 +241,7 @@ describe('dashboard in Chromium', () => {
     await expect.poll(() => page.getByTestId('save-status').getAttribute('data-status'), { timeout: 10_000 }).toBe('saved');
 
     await page.reload();
-    await waitAllFitted(demoCurves);
+    await waitAllFitted(page, demoCurves);
     expect(await page.getByTestId('status-counts').textContent()).toBe(status);
     await page.locator('[data-testid=curve-panel][data-curve="approach-A-gold.csv#0/single"]').waitFor();
     await expect.poll(() => page.getByTestId('manual-badge').textContent()).toBe(windowText);

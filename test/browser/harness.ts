@@ -9,7 +9,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { AddressInfo } from 'node:net';
-import { chromium, type BrowserContext } from 'playwright-core';
+import { chromium, type BrowserContext, type Page } from 'playwright-core';
 import { build, preview } from 'vite';
 
 /** The repository root, from this file's location. */
@@ -85,4 +85,18 @@ export async function launchBrowser(viewport = { width: 1366, height: 768 }): Pr
       rmSync(userDataDir, { recursive: true, force: true });
     },
   };
+}
+
+/** Wait until every curve has a result and no job runs (status line "N curves · N fitted", progress idle). */
+export async function waitAllFitted(page: Page, minimumCurves = 1, timeoutMs = 60_000): Promise<void> {
+  await page.waitForFunction(
+    (minimum) => {
+      const text = document.querySelector('[data-testid=status-counts]')?.textContent ?? '';
+      const match = /(\d+) curves? · (\d+) fitted/.exec(text);
+      const phase = document.querySelector('[data-testid=progress]')?.getAttribute('data-phase');
+      return match !== null && Number(match[1]) >= minimum && match[1] === match[2] && phase === 'idle' && !document.querySelector('[data-testid=fit-stale]');
+    },
+    minimumCurves,
+    { timeout: timeoutMs },
+  );
 }

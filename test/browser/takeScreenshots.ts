@@ -5,23 +5,11 @@
  */
 import { mkdirSync, readFileSync } from 'node:fs';
 import type { Page } from 'playwright-core';
-import { buildAndServe, launchBrowser } from './harness.ts';
+import { buildAndServe, launchBrowser, waitAllFitted } from './harness.ts';
 
 const out = new URL('../../static/screenshots/', import.meta.url);
 const only = process.argv.slice(2);
 mkdirSync(out, { recursive: true });
-
-async function waitAllFitted(page: Page): Promise<void> {
-  await page.waitForFunction(
-    () => {
-      const text = document.querySelector('[data-testid=status-counts]')?.textContent ?? '';
-      const match = /(\d+) curves? · (\d+) fitted/.exec(text);
-      return match !== null && Number(match[1]) > 0 && match[1] === match[2] && document.querySelector('[data-testid=progress]')?.getAttribute('data-phase') === 'idle' && !document.querySelector('[data-testid=fit-stale]');
-    },
-    null,
-    { timeout: 60_000 },
-  );
-}
 
 async function openCurve(page: Page, curveId: string): Promise<void> {
   await page.getByLabel('Search curves').fill(curveId.split('#')[0]);
