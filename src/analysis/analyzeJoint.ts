@@ -1,26 +1,20 @@
 import { fitApproachCurve, fitSpectrum, jointFit, settingsForRun, type AnalysisSettings, type UncertaintyNarrowing } from '../fit/index.ts';
-import { approachFitInput, runOf, spectrumFitInput, type CurveInput } from './analyzeCurve.ts';
+import { approachFitInput, runOf, spectrumFitInput, type CurveInput, type CurveResult } from './analyzeCurve.ts';
 import type { SitePair } from './pairSites.ts';
 
 /** The joint I(z) + I(V) result of one site, attached to the spectrum's record. */
-export interface JointSiteResult {
+/** The barrier values and errors a spectrum record carries (same names and units). */
+type BarrierValues = Pick<
+  CurveResult,
+  'phi1EV' | 'phi1ErrEV' | 'phi2EV' | 'phi2ErrEV' | 'meanBarrierEV' | 'meanBarrierErrEV' | 'asymmetryEV' | 'asymmetryErrEV' | 'widthNm' | 'widthErrNm' | 'areaNm2' | 'areaErrNm2'
+>;
+
+export interface JointSiteResult extends BarrierValues {
   approachCurve: string;
   spectrumCurve: string;
   pairedBy: SitePair['by'];
   status: 'ok' | 'failed';
   message: string;
-  phi1EV: number | null;
-  phi1ErrEV: number | null;
-  phi2EV: number | null;
-  phi2ErrEV: number | null;
-  meanBarrierEV: number | null;
-  meanBarrierErrEV: number | null;
-  asymmetryEV: number | null;
-  asymmetryErrEV: number | null;
-  widthNm: number | null;
-  widthErrNm: number | null;
-  areaNm2: number | null;
-  areaErrNm2: number | null;
   approachGapNm: number | null;
   reducedChi2: number | null;
   /** How much narrower each joint error bar is than the lone spectrum's (see UncertaintyNarrowing). */

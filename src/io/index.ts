@@ -39,6 +39,7 @@ export { MappingError, headerSignature } from './planColumns.ts';
 
 // Raw text in the browser
 export { RawTextStore, type RawTextRecord } from './rawStore.ts';
+export { done, promised } from './indexedDbPromises.ts';
 
 // Building blocks a dialog or an exporter may reuse
 export { parseUnit, parseUnitAs, SI_UNIT_OF, type ParsedUnit, type UnitDimension } from './parseUnit.ts';

@@ -13,23 +13,10 @@ export interface RawTextRecord {
   text: string;
 }
 
+import { done, promised } from './indexedDbPromises.ts';
+
 const STORE_NAME = 'rawText';
 const DATABASE_VERSION = 1;
-
-function promised<T>(request: IDBRequest<T>): Promise<T> {
-  return new Promise((resolve, reject) => {
-    request.onsuccess = () => resolve(request.result);
-    request.onerror = () => reject(request.error ?? new Error('IndexedDB request failed'));
-  });
-}
-
-function done(transaction: IDBTransaction): Promise<void> {
-  return new Promise((resolve, reject) => {
-    transaction.oncomplete = () => resolve();
-    transaction.onerror = () => reject(transaction.error ?? new Error('IndexedDB transaction failed'));
-    transaction.onabort = () => reject(transaction.error ?? new Error('IndexedDB transaction aborted'));
-  });
-}
 
 /**
  * Raw text of imported files in one IndexedDB object store, keyed by RawTextRecord.key.

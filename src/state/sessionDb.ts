@@ -8,25 +8,10 @@
  * `${sessionId}/${fileKey}`, so a session can be re-parsed exactly as it was imported.
  * Works with any IDBFactory (the window's, or fake-indexeddb in tests).
  */
-import { RawTextStore } from '../io/index.ts';
+import { RawTextStore, done, promised } from '../io/index.ts';
 import { SESSION_SCHEMA_VERSION, type SessionRecord, type SessionSummary } from './types.ts';
 
 const DATABASE_VERSION = 1;
-
-function promised<T>(request: IDBRequest<T>): Promise<T> {
-  return new Promise((resolve, reject) => {
-    request.onsuccess = () => resolve(request.result);
-    request.onerror = () => reject(request.error ?? new Error('IndexedDB request failed'));
-  });
-}
-
-function done(transaction: IDBTransaction): Promise<void> {
-  return new Promise((resolve, reject) => {
-    transaction.oncomplete = () => resolve();
-    transaction.onerror = () => reject(transaction.error ?? new Error('IndexedDB transaction failed'));
-    transaction.onabort = () => reject(transaction.error ?? new Error('IndexedDB transaction aborted'));
-  });
-}
 
 /** The summary of a record. */
 export function summarize(record: SessionRecord): SessionSummary {
