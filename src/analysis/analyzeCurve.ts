@@ -227,6 +227,8 @@ export function spectrumFitInput(curve: CurveInput, settings: AnalysisSettings):
       tipWorkFunctionEV: settings.tipWorkFunctionEV ?? undefined,
       imagePotential: settings.imagePotential,
       noise: { relative: settings.noiseRelative ?? undefined, floorA: settings.noiseFloorA ?? undefined },
+      // Asked for Simmons or BDR only: the fit chain stops there.
+      lastModel: settings.model === 'simmons' || settings.model === 'bdr' ? settings.model : 'wkb',
     },
     saturation,
     keptIndex,

@@ -29,9 +29,11 @@ export function polynomialFit(x: Float64Array, y: Float64Array, degree: number, 
     for (let k = 1; k < m; k++) powers[k] = powers[k - 1] * t;
     for (let a = 0; a < m; a++) {
       rhs[a] += w * powers[a] * y[i];
-      for (let b = 0; b < m; b++) normal[a * m + b] += w * powers[a] * powers[b];
+      for (let b = a; b < m; b++) normal[a * m + b] += w * powers[a] * powers[b];
     }
   }
+  // XᵀWX is symmetric: the lower triangle is the upper one.
+  for (let a = 1; a < m; a++) for (let b = 0; b < a; b++) normal[a * m + b] = normal[b * m + a];
   const inverse = invertSymmetric(normal, m);
   const scaled = new Float64Array(m);
   for (let a = 0; a < m; a++) for (let b = 0; b < m; b++) scaled[a] += inverse[a * m + b] * rhs[b];

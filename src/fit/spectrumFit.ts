@@ -5,13 +5,14 @@ import {
   paraboloidTipAreaM2,
   imageRoundedProfile,
   sampledCurrentDensity,
-  simmonsCurrentDensityDerivatives,
+  simmonsCurrentDensityInto,
   trapezoidCurrentDensity,
   TrapezoidSpectrum,
+  InterpolatedTrapezoidSpectrum,
 } from '../physics/index.ts';
 import type { Junction } from '../physics/index.ts';
 import { polynomialFit, polynomialValue } from './polynomialFit.ts';
-import { MAD_TO_SIGMA, selectMedian } from './selectMedian.ts';
+import { MAD_TO_SIGMA, selectKth, selectMedian } from './selectMedian.ts';
 import { createSolver, type LeastSquaresProblem, type SolverOptions, type SolverResult } from './solver.ts';
 
 /**
@@ -40,6 +41,11 @@ export interface SpectrumInput {
   /** Round the WKB barrier by the image potential (slower; the Simmons and BDR estimates stay square). */
   imagePotential?: boolean;
   noise?: { relative?: number; floorA?: number };
+  /**
+   * The last model of the chain BDR → Simmons → WKB to fit (default 'wkb'); the ones after it are
+   * returned with status 'not-run'. For a caller that asked for Simmons or BDR only.
+   */
+  lastModel?: SpectrumModelName;
 }
 
 export type SpectrumModelName = 'wkb' | 'simmons' | 'bdr';
@@ -91,6 +97,11 @@ export interface SpectrumFit {
   noise: { relative: number; floorA: number };
   /** 1/σ per point. */
   weights: Float64Array;
+  /**
+   * Area free only (else null): the mean-barrier range, eV, the Simmons and WKB fits were kept in,
+   * where the area implied along the χ² valley stays within PLAUSIBLE_AREA_M2 (see plausibleBarrierRange).
+   */
+  plausibleMeanBarrierRangeEV: [number, number] | null;
 }
 
 const MIN_BARRIER_EV = 0.01;
@@ -100,8 +111,14 @@ const MAX_WIDTH_M = 1e-8;
 const START_MEAN_BARRIER_EV = 4;
 const MULTI_START_ASYMMETRY_EV = 1.5;
 const FREE_AREA_NOTE =
-  'a lone I(V) with a free area does not pin the barrier (barrier height, width and area trade off along a shallow χ² valley), so its error bars are not reliable; tie the area to the tip radius or fit an I(z) at the same site jointly'; // typical clean-metal barrier, used only to start the BDR inverse (common practice, no source)
-const SOLVER_OPTIONS: SolverOptions = { maxIterations: 200, functionTolerance: 1e-12, stepTolerance: 1e-10, gradientTolerance: 1e-12 };
+  'a lone I(V) with a free area does not pin the barrier (barrier height, width and area trade off along a shallow χ² valley), so its error bars are not reliable; tie the area to the tip radius or fit an I(z) at the same site jointly';
+/**
+ * Effective tunnelling areas a real tip can have, m²: from a single-atom apex (πR/κ with R ≈ 0.2 nm,
+ * about 0.03 nm²) to a blunt tip of ~70 µm radius (about 1e4 nm²), with a margin below (common
+ * practice, no source: the paraboloid area of physics.md over that range of radii).
+ */
+export const PLAUSIBLE_AREA_M2: readonly [number, number] = [1e-20, 1e-14];
+const SOLVER_OPTIONS: SolverOptions = { maxIterations: 200, functionTolerance: 1e-10, stepTolerance: 1e-8, gradientTolerance: 1e-10 };
 
 /**
  * Fit one I(V) spectrum with BDR, Simmons and WKB (see the file comment); `best` is the WKB fit
@@ -135,8 +152,16 @@ export function fitSpectrum(input: SpectrumInput): SpectrumFit {
 
   const bdr = bdrEstimate(input, polynomial.coefficients, weights);
   const zeroBiasConductanceS = Math.abs(polynomial.coefficients[1]) || 1e-12;
-  const bdrStart = { tipWorkFunctionEV: START_MEAN_BARRIER_EV, sampleWorkFunctionEV: START_MEAN_BARRIER_EV, widthM: Number.isFinite(bdr.widthM) ? bdr.widthM : 8e-10, areaM2: bdr.areaM2 };
-  const simmons = fitBarrierModel('simmons', input, weights, bdrStart, zeroBiasConductanceS);
+  const startWidthM = Number.isFinite(bdr.widthM) ? bdr.widthM : 8e-10;
+  // Only a BDR width is worth matching G(0) at: the 8 Å fallback would pull φ̄ to a far valley.
+  const startMeanEV = bdr.converged ? simmonsStartBarrier(input.area, startWidthM, zeroBiasConductanceS) : START_MEAN_BARRIER_EV;
+  const bdrStart = { tipWorkFunctionEV: startMeanEV, sampleWorkFunctionEV: startMeanEV, widthM: startWidthM, areaM2: bdr.areaM2 };
+  const lastModel = input.lastModel ?? 'wkb';
+  const barrierRange = input.area.mode === 'free' && lastModel !== 'bdr' ? plausibleBarrierRange(input, bdrStart, zeroBiasConductanceS) : null;
+  const notRun = (model: SpectrumModelName): BarrierEstimate => ({ ...emptyEstimate(model, n), message: `not fitted (only the models up to ${lastModel} were asked for)` });
+  if (lastModel === 'bdr') return finish(input, bdr, notRun('wkb'), notRun('simmons'), bdr, noise, weights, null);
+  const simmons = fitBarrierModel('simmons', input, weights, bdrStart, zeroBiasConductanceS, barrierRange);
+  if (lastModel === 'simmons') return finish(input, simmons, notRun('wkb'), simmons, bdr, noise, weights, barrierRange);
   const startFrom = simmons.converged ? simmons : bdr;
   const asymmetry = Number.isFinite(bdr.asymmetryEV) ? bdr.asymmetryEV : 0;
   const startMean = Number.isFinite(startFrom.meanBarrierEV) ? startFrom.meanBarrierEV : START_MEAN_BARRIER_EV;
@@ -152,6 +177,7 @@ export function fitSpectrum(input: SpectrumInput): SpectrumFit {
         areaM2: startFrom.areaM2,
       },
       zeroBiasConductanceS,
+      barrierRange,
     );
   let wkb = wkbFrom(asymmetry);
   // The asymmetry is the loosest direction. A fit that ends far out (|Δφ| > 1.5 eV) or fails, and
@@ -178,9 +204,87 @@ export function fitSpectrum(input: SpectrumInput): SpectrumFit {
     }
   }
   const best = wkb.converged || !simmons.converged ? wkb : simmons;
+  return finish(input, best, wkb, simmons, bdr, noise, weights, barrierRange);
+}
+
+/** The SpectrumFit of the estimates: the AIC ranking of those fitted and the Fowler–Nordheim check of the best. */
+function finish(
+  input: SpectrumInput,
+  best: BarrierEstimate,
+  wkb: BarrierEstimate,
+  simmons: BarrierEstimate,
+  bdr: BarrierEstimate,
+  noise: SpectrumFit['noise'],
+  weights: Float64Array,
+  barrierRange: [number, number] | null,
+): SpectrumFit {
   const ranked = [wkb, simmons, bdr].filter((e) => Number.isFinite(e.aic)).sort((a, b) => a.aic - b.aic);
   const comparison = ranked.map((e) => ({ model: e.model, aic: e.aic, bic: e.bic, deltaAic: e.aic - ranked[0].aic }));
-  return { best, wkb, simmons, bdr, comparison, fowlerNordheim: fowlerNordheimCheck(biasV, best), noise, weights };
+  return { best, wkb, simmons, bdr, comparison, fowlerNordheim: fowlerNordheimCheck(input.biasV, best), noise, weights, plausibleMeanBarrierRangeEV: barrierRange };
+}
+
+/**
+ * Start of the Simmons fit with the area known (fixed or tied to the tip radius): the barrier φ̄,
+ * eV, at which Simmons' zero-bias conductance A(φ̄)·g(φ̄, d) at the BDR width equals the data's G(0),
+ * by bisection in ln φ̄ (A·g falls monotonically with φ̄). The current is exponential in d√φ̄, so a
+ * start that misses G(0) costs the solver two or three iterations to recover the amplitude alone.
+ * With a free area G(0) does not constrain φ̄ and the typical START_MEAN_BARRIER_EV is used.
+ */
+function simmonsStartBarrier(area: AreaConstraint, widthM: number, zeroBiasConductanceS: number): number {
+  if (area.mode === 'free' || !(widthM > 0) || !(zeroBiasConductanceS > 0)) return START_MEAN_BARRIER_EV;
+  const derivatives = new Float64Array(2);
+  const logConductance = (mean: number) =>
+    Math.log(areaFor(area, mean, Number.NaN) * (simmonsCurrentDensityInto(mean - ZERO_BIAS_PROBE_V / 2, widthM, ZERO_BIAS_PROBE_V, 1, derivatives) / ZERO_BIAS_PROBE_V));
+  const target = Math.log(zeroBiasConductanceS);
+  // Below ~0.5 eV the intermediate formula's bracket changes sign at sub-nanometre widths.
+  let low = Math.log(0.5);
+  let high = Math.log(MAX_BARRIER_EV * 0.9);
+  if (!(logConductance(Math.exp(low)) > target && logConductance(Math.exp(high)) < target)) return START_MEAN_BARRIER_EV;
+  for (let step = 0; step < 30; step++) {
+    const middle = (low + high) / 2;
+    if (logConductance(Math.exp(middle)) > target) low = middle;
+    else high = middle;
+  }
+  return Math.exp((low + high) / 2);
+}
+
+/**
+ * A lone I(V) with a free area fixes the zero-bias conductance G(0) = A·g(φ̄, d) and the curvature
+ * (d/√φ̄), but not φ̄: along that valley A grows as e^{b·d·√φ̄} and χ² is nearly flat, with minima
+ * the noise places anywhere from far below the bias range (areas of 1e-5 nm², a thousandth of an
+ * atom) to the upper bound (areas of square metres). The range of φ̄, eV, where the area implied
+ * along the valley through the start stays within PLAUSIBLE_AREA_M2, by bisection in ln φ̄ on the
+ * exact zero-bias conductance g of a symmetric trapezoid (A is monotonic along the valley).
+ * The width per √φ̄ and G(0) come from the start (BDR), so the range is approximate, which suits a
+ * bound that spans six decades of area.
+ */
+function plausibleBarrierRange(input: SpectrumInput, start: WkbStart, zeroBiasConductanceS: number): [number, number] {
+  const startMean = (start.tipWorkFunctionEV + start.sampleWorkFunctionEV) / 2;
+  const widthPerRoot = start.widthM / Math.sqrt(startMean);
+  const logArea = (mean: number) => {
+    const junction = { tipWorkFunctionEV: mean, sampleWorkFunctionEV: mean, gapM: widthPerRoot * Math.sqrt(mean), fermiEnergyEV: input.fermiEnergyEV };
+    const conductancePerArea = trapezoidCurrentDensity(junction, ZERO_BIAS_PROBE_V, input.temperatureK) / ZERO_BIAS_PROBE_V;
+    return Math.log(zeroBiasConductanceS / conductancePerArea);
+  };
+  const lowLog = Math.log(MIN_BARRIER_EV);
+  const highLog = Math.log(MAX_BARRIER_EV);
+  if (!(widthPerRoot > 0) || !(zeroBiasConductanceS > 0)) return [MIN_BARRIER_EV, MAX_BARRIER_EV];
+  const crossing = (target: number): number => {
+    if (logArea(Math.exp(lowLog)) >= target) return lowLog;
+    if (logArea(Math.exp(highLog)) <= target) return highLog;
+    let low = lowLog;
+    let high = highLog;
+    for (let step = 0; step < 14; step++) {
+      const middle = (low + high) / 2;
+      if (logArea(Math.exp(middle)) < target) low = middle;
+      else high = middle;
+    }
+    return (low + high) / 2;
+  };
+  const low = Math.exp(crossing(Math.log(PLAUSIBLE_AREA_M2[0])));
+  const high = Math.exp(crossing(Math.log(PLAUSIBLE_AREA_M2[1])));
+  // The whole valley outside the plausible areas: the data disagree with the prior; do not impose it.
+  return high > low * 1.01 ? [low, high] : [MIN_BARRIER_EV, MAX_BARRIER_EV];
 }
 
 function clampBarrier(value: number): number {
@@ -190,27 +294,56 @@ function clampBarrier(value: number): number {
 /** Noise model from the residuals of a smooth fit: floor σ from the smallest-|I| quarter, relative σ from the largest half. */
 function estimateNoise(currentA: Float64Array, smooth: Float64Array, given?: { relative?: number; floorA?: number }): { relative: number; floorA: number } {
   const n = currentA.length;
-  const byMagnitude = Array.from({ length: n }, (_, i) => i).sort((a, b) => Math.abs(smooth[a]) - Math.abs(smooth[b]));
-  const scratch = new Float64Array(n);
+  const magnitude = new Float64Array(n);
   let maxCurrent = 0;
-  for (let i = 0; i < n; i++) maxCurrent = Math.max(maxCurrent, Math.abs(smooth[i]));
+  for (let i = 0; i < n; i++) {
+    magnitude[i] = Math.abs(smooth[i]);
+    maxCurrent = Math.max(maxCurrent, magnitude[i]);
+  }
+  const scratch = new Float64Array(n);
+  const smallest = new Uint8Array(n);
   let floorA = given?.floorA ?? Number.NaN;
   if (!Number.isFinite(floorA)) {
     const quarter = Math.max(3, Math.floor(n / 4));
-    for (let k = 0; k < quarter; k++) scratch[k] = Math.abs(currentA[byMagnitude[k]] - smooth[byMagnitude[k]]);
-    floorA = MAD_TO_SIGMA * selectMedian(scratch, quarter);
+    markSmallest(magnitude, quarter, scratch, smallest);
+    let count = 0;
+    for (let i = 0; i < n; i++) if (smallest[i] === 1) scratch[count++] = Math.abs(currentA[i] - smooth[i]);
+    floorA = MAD_TO_SIGMA * selectMedian(scratch, count);
   }
   floorA = Math.max(floorA, 1e-6 * maxCurrent);
   let relative = given?.relative ?? Number.NaN;
   if (!Number.isFinite(relative)) {
+    markSmallest(magnitude, Math.floor(n / 2), scratch, smallest);
     let count = 0;
-    for (let k = Math.floor(n / 2); k < n; k++) {
-      const i = byMagnitude[k];
-      scratch[count++] = Math.abs((currentA[i] - smooth[i]) / smooth[i]);
-    }
+    for (let i = 0; i < n; i++) if (smallest[i] === 0) scratch[count++] = Math.abs((currentA[i] - smooth[i]) / smooth[i]);
     relative = MAD_TO_SIGMA * selectMedian(scratch, count);
   }
   return { relative: Math.max(relative, 1e-6), floorA };
+}
+
+/**
+ * mask[i] = 1 for the `count` smallest of `values` (ties taken in index order, as a stable sort
+ * would), else 0, in O(n) by quickselect; `work` (same length) is overwritten.
+ */
+function markSmallest(values: Float64Array, count: number, work: Float64Array, mask: Uint8Array): void {
+  const n = values.length;
+  mask.fill(0);
+  if (count <= 0) return;
+  work.set(values);
+  const threshold = selectKth(work, n, Math.min(count, n) - 1);
+  let marked = 0;
+  for (let i = 0; i < n; i++) {
+    if (values[i] < threshold) {
+      mask[i] = 1;
+      marked++;
+    }
+  }
+  for (let i = 0; i < n && marked < count; i++) {
+    if (values[i] === threshold) {
+      mask[i] = 1;
+      marked++;
+    }
+  }
 }
 
 function areaFor(constraint: AreaConstraint, meanBarrierEV: number, freeAreaM2: number): number {
@@ -472,34 +605,28 @@ type SweepDensity = (junction: Junction, current: Float64Array, gradient: Float6
  * over φ1 and φ2 so the barrier layouts' chain rule applies unchanged.
  */
 function simmonsSweep(biasesV: Float64Array): SweepDensity {
-  const point = new Float64Array(3);
+  const derivatives = new Float64Array(2);
   return (junction, current, gradient) => {
+    const barrier0 = junction.tipWorkFunctionEV;
+    const width = junction.gapM;
     for (let i = 0; i < biasesV.length; i++) {
-      current[i] = simmonsDensity(junction, biasesV[i], point);
-      gradient[3 * i] = point[0];
-      gradient[3 * i + 1] = point[1];
-      gradient[3 * i + 2] = point[2];
+      const biasV = biasesV[i];
+      const magnitude = Math.abs(biasV);
+      const triangle = magnitude >= barrier0;
+      const mean = triangle ? barrier0 / 2 : barrier0 - magnitude / 2;
+      const forbidden = triangle ? (width * barrier0) / magnitude : width;
+      current[i] = simmonsCurrentDensityInto(mean, forbidden, biasV, 1, derivatives);
+      const dBarrier = derivatives[0] * (triangle ? 0.5 : 1) + derivatives[1] * (triangle ? width / magnitude : 0);
+      gradient[3 * i] = dBarrier / 2;
+      gradient[3 * i + 1] = dBarrier / 2;
+      gradient[3 * i + 2] = derivatives[1] * (triangle ? barrier0 / magnitude : 1);
     }
   };
 }
 
-function simmonsDensity(junction: Junction, biasV: number, gradient: Float64Array): number {
-  const barrier0 = junction.tipWorkFunctionEV;
-  const width = junction.gapM;
-  const magnitude = Math.abs(biasV);
-  const triangle = magnitude >= barrier0;
-  const mean = triangle ? barrier0 / 2 : barrier0 - magnitude / 2;
-  const forbidden = triangle ? (width * barrier0) / magnitude : width;
-  const d = simmonsCurrentDensityDerivatives({ meanBarrierEV: mean, widthM: forbidden, biasV });
-  const dBarrier = d.dCurrentDensityDMeanBarrier * (triangle ? 0.5 : 1) + d.dCurrentDensityDWidth * (triangle ? width / magnitude : 0);
-  gradient[0] = dBarrier / 2;
-  gradient[1] = dBarrier / 2;
-  gradient[2] = d.dCurrentDensityDWidth * (triangle ? barrier0 / magnitude : 1);
-  return d.currentDensityAPerM2;
-}
-
+/** The WKB trapezoid over the sweep: interpolated between exact nodes (exact where that is not accurate). */
 function wkbSweep(biasesV: Float64Array, temperatureK: number): SweepDensity {
-  const spectrum = new TrapezoidSpectrum(biasesV, temperatureK);
+  const spectrum = new InterpolatedTrapezoidSpectrum(biasesV, temperatureK);
   return (junction, current, gradient) => spectrum.evaluate(junction, current, gradient);
 }
 
@@ -564,6 +691,7 @@ function fitBarrierModel(
   weights: Float64Array,
   start: WkbStart,
   zeroBiasConductanceS: number,
+  barrierRange: [number, number] | null,
 ): BarrierEstimate {
   const { biasV, currentA, temperatureK, fermiEnergyEV } = input;
   const n = biasV.length;
@@ -626,20 +754,22 @@ function fitBarrierModel(
   let lower: number[];
   let upper: number[];
   const logBarrier = [Math.log(MIN_BARRIER_EV), Math.log(MAX_BARRIER_EV)];
+  // Free area: φ̄ stays where the implied area is plausible (plausibleBarrierRange).
+  const logMean = barrierRange ? [Math.log(barrierRange[0]), Math.log(barrierRange[1])] : logBarrier;
   if (symmetric) {
     startQ = freeArea ? [Math.log(mean), Math.log(width / Math.sqrt(mean)), Math.log(zeroBiasConductanceS)] : [Math.log(mean), Math.log(width)];
-    lower = freeArea ? [logBarrier[0], Math.log(MIN_WIDTH_M / Math.sqrt(MAX_BARRIER_EV)), -80] : [logBarrier[0], Math.log(MIN_WIDTH_M)];
-    upper = freeArea ? [logBarrier[1], Math.log(MAX_WIDTH_M / Math.sqrt(MIN_BARRIER_EV)), 0] : [logBarrier[1], Math.log(MAX_WIDTH_M)];
+    lower = freeArea ? [logMean[0], Math.log(MIN_WIDTH_M / Math.sqrt(MAX_BARRIER_EV)), -80] : [logBarrier[0], Math.log(MIN_WIDTH_M)];
+    upper = freeArea ? [logMean[1], Math.log(MAX_WIDTH_M / Math.sqrt(MIN_BARRIER_EV)), 0] : [logBarrier[1], Math.log(MAX_WIDTH_M)];
   } else if (freeArea && input.tipWorkFunctionEV === undefined) {
     startQ = [Math.log(mean), Math.max(-mean, Math.min(mean, asymmetry)), Math.log(width / Math.sqrt(mean)), Math.log(zeroBiasConductanceS)];
-    lower = [logBarrier[0], -MAX_BARRIER_EV, Math.log(MIN_WIDTH_M / Math.sqrt(MAX_BARRIER_EV)), -80];
-    upper = [logBarrier[1], MAX_BARRIER_EV, Math.log(MAX_WIDTH_M / Math.sqrt(MIN_BARRIER_EV)), 0];
+    lower = [logMean[0], -MAX_BARRIER_EV, Math.log(MIN_WIDTH_M / Math.sqrt(MAX_BARRIER_EV)), -80];
+    upper = [logMean[1], MAX_BARRIER_EV, Math.log(MAX_WIDTH_M / Math.sqrt(MIN_BARRIER_EV)), 0];
   } else if (freeArea) {
     const fixedTip = input.tipWorkFunctionEV as number;
     const startMean = Math.max(mean, 0.6 * fixedTip);
     startQ = [Math.log(startMean), Math.log(width / Math.sqrt(startMean)), Math.log(zeroBiasConductanceS)];
-    lower = [Math.log(fixedTip / 2 + MIN_BARRIER_EV), Math.log(MIN_WIDTH_M / Math.sqrt(MAX_BARRIER_EV)), -80];
-    upper = [logBarrier[1], Math.log(MAX_WIDTH_M / Math.sqrt(MIN_BARRIER_EV)), 0];
+    lower = [Math.max(logMean[0], Math.log(fixedTip / 2 + MIN_BARRIER_EV)), Math.log(MIN_WIDTH_M / Math.sqrt(MAX_BARRIER_EV)), -80];
+    upper = [Math.max(logMean[1], Math.log(fixedTip / 2 + 2 * MIN_BARRIER_EV)), Math.log(MAX_WIDTH_M / Math.sqrt(MIN_BARRIER_EV)), 0];
   } else {
     startQ = [
       ...(input.tipWorkFunctionEV === undefined ? [Math.log(clampBarrier(start.tipWorkFunctionEV))] : []),
@@ -656,7 +786,7 @@ function fitBarrierModel(
   // test can certify its error bar (profile checks at ±3σ pass on some spectra whose truth lies
   // 16σ away). It is reported, but marked. The image term (area tied) gets the profile check.
   const profileNote = freeArea
-    ? FREE_AREA_NOTE
+    ? `${FREE_AREA_NOTE}${barrierRange ? ` (φ̄ was kept within ${barrierRange[0].toFixed(2)}–${barrierRange[1].toFixed(2)} eV, where the implied area lies between 0.01 and 1e4 nm²)` : ''}`
     : input.imagePotential && result.converged && result.uncertaintiesOk
       ? profileCheck(problem, result, lower, upper)
       : '';

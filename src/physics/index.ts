@@ -7,6 +7,7 @@ export * from './quadrature.ts';
 export * from './energyGrid.ts';
 export * from './currentDensity.ts';
 export * from './trapezoidSpectrum.ts';
+export * from './interpolatedSpectrum.ts';
 export * from './tipArea.ts';
 export * from './apparentBarrier.ts';
 export * from './random.ts';

@@ -52,7 +52,21 @@ export interface SimmonsDerivatives {
   dCurrentDensityDWidth: number;
 }
 
-function simmonsParts({ meanBarrierEV: phi, widthM, biasV, beta = 1 }: SimmonsBarrier): SimmonsDerivatives {
+function simmonsParts({ meanBarrierEV, widthM, biasV, beta = 1 }: SimmonsBarrier): SimmonsDerivatives {
+  const derivatives = new Float64Array(2);
+  const current = simmonsCurrentDensityInto(meanBarrierEV, widthM, biasV, beta, derivatives);
+  return { currentDensityAPerM2: current, dCurrentDensityDMeanBarrier: derivatives[0], dCurrentDensityDWidth: derivatives[1] };
+}
+
+/**
+ * Allocation-free form of {@link simmonsCurrentDensityDerivatives} for fits that sweep it over
+ * hundreds of biases: returns J (A/m²) and writes ∂J/∂φ̄ (A/m² per eV) and ∂J/∂Δs (A/m² per m) to
+ * derivatives[0] and derivatives[1]. Arguments are not checked (φ̄ > 0, Δs > 0 are the caller's).
+ * Source: as simmonsCurrentDensityDerivatives (J. G. Simmons, J. Appl. Phys. 34, 1793 (1963)).
+ * @example simmonsCurrentDensityInto(4, 1e-9, 0.1, 1, out) // ≈ 6.37879e3, out[1] ≈ −1.37193e14
+ */
+export function simmonsCurrentDensityInto(meanBarrierEV: number, widthM: number, biasV: number, beta: number, derivatives: Float64Array): number {
+  const phi = meanBarrierEV;
   const sign = biasV < 0 ? -1 : 1;
   const eV = Math.abs(biasV);
   const effectiveWidth = beta * widthM;
@@ -68,11 +82,9 @@ function simmonsParts({ meanBarrierEV: phi, widthM, biasV, beta = 1 }: SimmonsBa
   const dBracketDPhi = expLow * (1 - (a * rootLow) / 2) - expHigh * (1 - (a * rootHigh) / 2);
   const dBracketDA = -phi * rootLow * expLow + (phi + eV) * rootHigh * expHigh;
   const dCurrentDWidth = (-2 * current) / widthM + prefactor * dBracketDA * (a / widthM);
-  return {
-    currentDensityAPerM2: sign * current,
-    dCurrentDensityDMeanBarrier: sign * prefactor * dBracketDPhi,
-    dCurrentDensityDWidth: sign * dCurrentDWidth,
-  };
+  derivatives[0] = sign * prefactor * dBracketDPhi;
+  derivatives[1] = sign * dCurrentDWidth;
+  return sign * current;
 }
 
 /**

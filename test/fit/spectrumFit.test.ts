@@ -122,6 +122,28 @@ describe('fitSpectrum(WKB, free area)', () => {
     }
   });
 
+  it('fitSpectrum(free area) keeps φ̄ where the implied area is 0.01–1e4 nm², and the area there agrees within a decade', () => {
+    // The range comes from the exact zero-bias conductance along the valley through the BDR start
+    // (an approximation); at its ends the fitted area must be near the bounds, and the truth
+    // (4.3 eV, area πR/κ ≈ 3 nm² for R = 10 nm, physics.md §9) must lie inside.
+    for (let seed = 1; seed <= 6; seed++) {
+      const result = fit(simulateSpectrum({ seed: 2000 + seed }), { mode: 'free' });
+      const range = result.plausibleMeanBarrierRangeEV;
+      expect(range, `seed ${seed}`).not.toBeNull();
+      const [low, high] = range as [number, number];
+      expect(low).toBeLessThan(4.3);
+      expect(high).toBeGreaterThan(4.3);
+      const wkb = result.wkb;
+      expect(wkb.meanBarrierEV).toBeGreaterThanOrEqual(low * (1 - 1e-9));
+      expect(wkb.meanBarrierEV).toBeLessThanOrEqual(high * (1 + 1e-9));
+      expect(wkb.areaM2).toBeGreaterThan(1e-21);
+      expect(wkb.areaM2).toBeLessThan(1e-13);
+      expect(wkb.uncertaintyNote).toContain('kept within');
+    }
+    // With the area known the range is not used.
+    expect(fit(simulateSpectrum({ seed: 2001 }), tipRadius).plausibleMeanBarrierRangeEV).toBeNull();
+  });
+
   it('fitSpectrum(noise-free WKB spectrum, free area) still finds the exact barrier', () => {
     const spectrum = simulateSpectrum({});
     const wkb = fit(spectrum, { mode: 'free' }).wkb;
