@@ -19,21 +19,29 @@ export function polynomialFit(x: Float64Array, y: Float64Array, degree: number, 
   let scale = 0;
   for (let i = 0; i < n; i++) scale = Math.max(scale, Math.abs(x[i]));
   if (!(scale > 0)) scale = 1;
+  // Powers t_i^k column by column, then each entry of XᵀWX and XᵀWy as one dot product over the
+  // points (the sums of the textbook form, in the same order, so the same rounding).
+  const powers = new Float64Array(m * n);
+  for (let i = 0; i < n; i++) {
+    const t = x[i] / scale;
+    powers[i] = 1;
+    for (let k = 1; k < m; k++) powers[k * n + i] = powers[(k - 1) * n + i] * t;
+  }
   const normal = new Float64Array(m * m);
   const rhs = new Float64Array(m);
-  const powers = new Float64Array(m);
-  for (let i = 0; i < n; i++) {
-    const w = weights === null ? 1 : weights[i];
-    const t = x[i] / scale;
-    powers[0] = 1;
-    for (let k = 1; k < m; k++) powers[k] = powers[k - 1] * t;
-    for (let a = 0; a < m; a++) {
-      rhs[a] += w * powers[a] * y[i];
-      for (let b = a; b < m; b++) normal[a * m + b] += w * powers[a] * powers[b];
+  for (let a = 0; a < m; a++) {
+    const rowA = a * n;
+    let sumY = 0;
+    for (let i = 0; i < n; i++) sumY += (weights === null ? 1 : weights[i]) * powers[rowA + i] * y[i];
+    rhs[a] = sumY;
+    for (let b = a; b < m; b++) {
+      const rowB = b * n;
+      let sum = 0;
+      for (let i = 0; i < n; i++) sum += (weights === null ? 1 : weights[i]) * powers[rowA + i] * powers[rowB + i];
+      normal[a * m + b] = sum;
+      normal[b * m + a] = sum;
     }
   }
-  // XᵀWX is symmetric: the lower triangle is the upper one.
-  for (let a = 1; a < m; a++) for (let b = 0; b < a; b++) normal[a * m + b] = normal[b * m + a];
   const inverse = invertSymmetric(normal, m);
   const scaled = new Float64Array(m);
   for (let a = 0; a < m; a++) for (let b = 0; b < m; b++) scaled[a] += inverse[a * m + b] * rhs[b];

@@ -419,7 +419,7 @@ function bdrEstimate(input: SpectrumInput, coefficients: Float64Array, weights: 
   };
 }
 
-function emptyEstimate(model: SpectrumModelName, n: number): BarrierEstimate {
+function emptyEstimate(model: SpectrumModelName, n: number, fittedCurrentA = new Float64Array(n)): BarrierEstimate {
   const nan = Number.NaN;
   return {
     model,
@@ -450,7 +450,7 @@ function emptyEstimate(model: SpectrumModelName, n: number): BarrierEstimate {
     nFree: 0,
     iterations: 0,
     evaluations: 0,
-    fittedCurrentA: new Float64Array(n),
+    fittedCurrentA,
   };
 }
 
@@ -886,7 +886,7 @@ function profileCheck(problem: LeastSquaresProblem, result: SolverResult, lower:
 /** A BarrierEstimate with the solver's status, statistics and correlations filled in (values still NaN). */
 export function describeSolverResult(model: SpectrumModelName, result: SolverResult, fitted: Float64Array, names: string[]): BarrierEstimate {
   return {
-    ...emptyEstimate(model, fitted.length),
+    ...emptyEstimate(model, fitted.length, Float64Array.from(fitted)),
     status: result.status,
     message: result.message,
     converged: result.converged,
@@ -902,7 +902,6 @@ export function describeSolverResult(model: SpectrumModelName, result: SolverRes
     nFree: result.nFree,
     iterations: result.iterations,
     evaluations: result.nEvaluations,
-    fittedCurrentA: Float64Array.from(fitted),
   };
 }
 

@@ -1,12 +1,14 @@
 /**
  * The small fit helpers: weightedLine (closed-form weighted straight line), polynomialFit (normal
  * equations on scaled x) with polynomialValue and invertSymmetric, and selectMedian/selectKth
- * (quickselect), against hand values, NIST StRD linear-regression data sets and sorting.
+ * (quickselect) with selectMedianOfMagnitudes (bracketed), against hand values, NIST StRD
+ * linear-regression data sets and sorting.
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { invertSymmetric, polynomialFit, polynomialValue } from '../../src/fit/polynomialFit.ts';
-import { selectKth, selectMedian } from '../../src/fit/selectMedian.ts';
+import { selectKth, selectMedian, selectMedianOfMagnitudes } from '../../src/fit/selectMedian.ts';
+import { gaussian, mulberry32 } from '../../src/fit/index.ts';
 import { weightedLine } from '../../src/fit/weightedLine.ts';
 import { expectRelClose, logRelativeError } from '../helpers.ts';
 
@@ -285,5 +287,45 @@ describe('selectMedian and selectKth', () => {
   it('selectMedian(count 0) is NaN and the doc example gives 3', () => {
     expect(Number.isNaN(selectMedian(new Float64Array(4), 0))).toBe(true);
     expect(selectMedian(f64([5, 1, 3]), 3)).toBe(3);
+  });
+
+  function sum(values: ArrayLike<number>): number {
+    let total = 0;
+    for (let i = 0; i < values.length; i++) total += values[i];
+    return total;
+  }
+
+  it('selectMedianOfMagnitudes(|normal| samples of 5–400) equals selectMedian, the bracket holding or not', () => {
+    const random = mulberry32(11);
+    const scratch = new Float64Array(400);
+    for (let trial = 0; trial < 400; trial++) {
+      const count = 5 + Math.floor(random() * 396);
+      // a scale that changes midway makes the 0.845 × mean guess miss now and then
+      const values = Float64Array.from({ length: count }, (_, i) => Math.abs(gaussian(random)) * (i < count * random() ? 1 : 1 + 3 * random()));
+      const expected = selectMedian(Float64Array.from(values), count);
+      expect(selectMedianOfMagnitudes(Float64Array.from(values), count, sum(values), scratch)).toBe(expected);
+    }
+  });
+
+  it('selectMedianOfMagnitudes(any values, any sum) equals selectMedian: ties, signs, ±∞, NaN, wrong sums', () => {
+    const entry = fc.oneof(fc.double({ min: -1e3, max: 1e3, noNaN: true }), fc.integer({ min: 0, max: 3 }), fc.constantFrom(Infinity, -Infinity, Number.NaN));
+    fc.assert(
+      fc.property(fc.array(entry, { minLength: 1, maxLength: 120 }), fc.oneof(fc.constant(null), fc.double()), (values, claimedSum) => {
+        const array = Float64Array.from(values);
+        const expected = selectMedian(Float64Array.from(values), values.length);
+        const actual = selectMedianOfMagnitudes(array, values.length, claimedSum ?? sum(values), new Float64Array(values.length));
+        expect(Object.is(actual, expected) || (Number.isNaN(actual) && Number.isNaN(expected))).toBe(true);
+      }),
+      { seed: 5, numRuns: 1000 },
+    );
+  });
+
+  it('selectMedianOfMagnitudes leaves the values in place when the bracket holds, and the doc example gives 3', () => {
+    const random = mulberry32(12);
+    const values = Float64Array.from({ length: 200 }, () => Math.abs(gaussian(random)));
+    const original = Float64Array.from(values);
+    expect(selectMedianOfMagnitudes(values, 200, sum(values), new Float64Array(200))).toBe(selectMedian(Float64Array.from(original), 200));
+    expect(values).toEqual(original);
+    expect(selectMedianOfMagnitudes(f64([5, 1, 3]), 3, 9, new Float64Array(3))).toBe(3);
   });
 });
