@@ -70,7 +70,6 @@ export function bestProfileChiSquare(
     }
     start[2] = Math.log(Math.max(1e-40, numerator / denominator));
     const result = solver.solve(problem, start, { maxIterations: 300, lower: [-1.9, Math.log(0.2), -150], upper: [1.9, Math.log(60), 0] });
-    if (process.env.PROFILE_DEBUG) console.log(`  φ̄ ${mean.toFixed(2)} χ² ${result.chiSquare.toFixed(2)} A ${(Math.exp(result.params[2]) * 1e18).toExponential(1)} nm² d ${(Math.exp(result.params[1]) * Math.sqrt(mean)).toFixed(2)} Å`);
     if (result.chiSquare < best.chiSquare) best = { chiSquare: result.chiSquare, meanBarrierEV: mean };
     start = Array.from(result.params);
   }
