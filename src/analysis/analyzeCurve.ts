@@ -227,8 +227,6 @@ export function spectrumFitInput(curve: CurveInput, settings: AnalysisSettings):
       tipWorkFunctionEV: settings.tipWorkFunctionEV ?? undefined,
       imagePotential: settings.imagePotential,
       noise: { relative: settings.noiseRelative ?? undefined, floorA: settings.noiseFloorA ?? undefined },
-      // Asked for Simmons or BDR only: the fit chain stops there.
-      lastModel: settings.model === 'simmons' || settings.model === 'bdr' ? settings.model : 'wkb',
     },
     saturation,
     keptIndex,
@@ -360,7 +358,8 @@ function analyzeSpectrum(curve: CurveInput, settings: AnalysisSettings): CurveRe
   const current = input.currentA;
   let fit: SpectrumFit;
   try {
-    fit = fitSpectrum(input);
+    // Asked for Simmons or BDR only: the fit chain stops there (the joint fit always runs it whole).
+    fit = fitSpectrum({ ...input, lastModel: settings.model === 'simmons' || settings.model === 'bdr' ? settings.model : 'wkb' });
   } catch (error) {
     record.message = (error as Error).message;
     record.flags = flagsForFit({ kind: 'iv', converged: false, statusMessage: record.message, saturation });

@@ -158,7 +158,8 @@ export function jointFit(input: JointFitInput): JointFit {
     areaM2: value(3),
     areaErrorM2: value(3) * Math.sqrt(logCov(3, 3)),
   };
-  const separate = spectrum.fit.best;
+  // The joint fit is WKB: compare with the lone WKB fit (unless the chain stopped before it).
+  const separate = spectrum.fit.wkb.status === 'not-run' ? spectrum.fit.best : spectrum.fit.wkb;
   const pairs: [UncertaintyNarrowing['quantity'], number, number, number, number][] = [
     ['tipWorkFunctionEV', separate.tipWorkFunctionEV, separate.tipWorkFunctionErrorEV, estimate.tipWorkFunctionEV, estimate.tipWorkFunctionErrorEV],
     ['sampleWorkFunctionEV', separate.sampleWorkFunctionEV, separate.sampleWorkFunctionErrorEV, estimate.sampleWorkFunctionEV, estimate.sampleWorkFunctionErrorEV],
@@ -171,7 +172,7 @@ export function jointFit(input: JointFitInput): JointFit {
     estimate,
     approachGapM: value(4),
     approachGapErrorM: value(4) * Math.sqrt(logCov(4, 4)),
-    narrowing: pairs.map(([quantity, lone, loneError, joint, jointError]) => narrowingOf(quantity, lone, loneError, joint, jointError, separate.uncertaintiesOk)),
+    narrowing: pairs.map(([quantity, lone, loneError, joint, jointError]) => narrowingOf(quantity, lone, loneError, joint, jointError, separate.uncertaintiesOk, separate.model === 'bdr')),
   };
 }
 
@@ -182,9 +183,13 @@ function narrowingOf(
   joint: number,
   jointError: number,
   loneTrusted: boolean,
+  loneIsClosedForm: boolean,
 ): UncertaintyNarrowing {
   const base = { quantity, separate: loneError, joint: jointError };
-  if (!(Number.isFinite(loneError) && loneError > 0)) return { ...base, factor: Number.NaN, note: 'the lone I(V) fit gives no finite error bar (a parameter on a bound)' };
+  if (!(Number.isFinite(loneError) && loneError > 0)) {
+    const why = loneIsClosedForm ? 'the lone I(V) estimate is the closed-form BDR one, which has no error bar' : 'the lone I(V) fit gives no finite error bar (a parameter on a bound)';
+    return { ...base, factor: Number.NaN, note: why };
+  }
   if (Math.abs(lone - joint) > 3 * Math.hypot(loneError, jointError)) {
     return { ...base, factor: Number.NaN, note: 'the lone I(V) and joint optima differ by more than 3 combined σ: the lone error bar describes another point of the valley' };
   }

@@ -122,7 +122,8 @@ const SOLVER_OPTIONS: SolverOptions = { maxIterations: 200, functionTolerance: 1
 
 /**
  * Fit one I(V) spectrum with BDR, Simmons and WKB (see the file comment); `best` is the WKB fit
- * unless it failed to converge and Simmons did.
+ * unless it failed to converge and Simmons did (or the last model fitted, when `lastModel` stops
+ * the chain early).
  * @example fitSpectrum({ biasV, currentA, temperatureK: 300, fermiEnergyEV: 5.5, area: { mode: 'free' } }).best.meanBarrierEV
  */
 export function fitSpectrum(input: SpectrumInput): SpectrumFit {
@@ -157,29 +158,41 @@ export function fitSpectrum(input: SpectrumInput): SpectrumFit {
   const startMeanEV = bdr.converged ? simmonsStartBarrier(input.area, startWidthM, zeroBiasConductanceS) : START_MEAN_BARRIER_EV;
   const bdrStart = { tipWorkFunctionEV: startMeanEV, sampleWorkFunctionEV: startMeanEV, widthM: startWidthM, areaM2: bdr.areaM2 };
   const lastModel = input.lastModel ?? 'wkb';
-  const barrierRange = input.area.mode === 'free' && lastModel !== 'bdr' ? plausibleBarrierRange(input, bdrStart, zeroBiasConductanceS) : null;
   const notRun = (model: SpectrumModelName): BarrierEstimate => ({ ...emptyEstimate(model, n), message: `not fitted (only the models up to ${lastModel} were asked for)` });
   if (lastModel === 'bdr') return finish(input, bdr, notRun('wkb'), notRun('simmons'), bdr, noise, weights, null);
+  // Free area: each fit keeps φ̄ where the area implied along the χ² valley is plausible, the
+  // valley taken from the best estimate so far (BDR, then Simmons, then the WKB fit itself).
+  const free = input.area.mode === 'free';
+  let barrierRange = free && bdr.converged ? plausibleBarrierRange(input, estimateOf(bdrStart), zeroBiasConductanceS) : null;
   const simmons = fitBarrierModel('simmons', input, weights, bdrStart, zeroBiasConductanceS, barrierRange);
   if (lastModel === 'simmons') return finish(input, simmons, notRun('wkb'), simmons, bdr, noise, weights, barrierRange);
+  if (free && simmons.converged) barrierRange = plausibleBarrierRange(input, simmons, zeroBiasConductanceS);
   const startFrom = simmons.converged ? simmons : bdr;
   const asymmetry = Number.isFinite(bdr.asymmetryEV) ? bdr.asymmetryEV : 0;
   const startMean = Number.isFinite(startFrom.meanBarrierEV) ? startFrom.meanBarrierEV : START_MEAN_BARRIER_EV;
+  const fitWkb = (start: WkbStart) => fitBarrierModel('wkb', input, weights, start, zeroBiasConductanceS, barrierRange);
   const wkbFrom = (startAsymmetry: number) =>
-    fitBarrierModel(
-      'wkb',
-      input,
-      weights,
-      {
-        tipWorkFunctionEV: input.tipWorkFunctionEV ?? clampBarrier(startMean - startAsymmetry / 2),
-        sampleWorkFunctionEV: clampBarrier(startMean + startAsymmetry / 2),
-        widthM: Number.isFinite(startFrom.widthM) ? startFrom.widthM : 8e-10,
-        areaM2: startFrom.areaM2,
-      },
-      zeroBiasConductanceS,
-      barrierRange,
-    );
+    fitWkb({
+      tipWorkFunctionEV: input.tipWorkFunctionEV ?? clampBarrier(startMean - startAsymmetry / 2),
+      sampleWorkFunctionEV: clampBarrier(startMean + startAsymmetry / 2),
+      widthM: Number.isFinite(startFrom.widthM) ? startFrom.widthM : 8e-10,
+      areaM2: startFrom.areaM2,
+    });
   let wkb = wkbFrom(asymmetry);
+  // Ended on a bound of a range taken from an earlier estimate: take the range from this fit's own
+  // valley and, where it reaches further, continue from there once.
+  if (barrierRange && wkb.converged) {
+    const own = plausibleBarrierRange(input, wkb, zeroBiasConductanceS);
+    const atLow = wkb.meanBarrierEV <= barrierRange[0] * (1 + 1e-6);
+    const atHigh = wkb.meanBarrierEV >= barrierRange[1] * (1 - 1e-6);
+    if (own && ((atLow && own[0] < barrierRange[0] * 0.99) || (atHigh && own[1] > barrierRange[1] * 1.01))) {
+      const previous = barrierRange;
+      barrierRange = own;
+      const again = fitWkb({ tipWorkFunctionEV: wkb.tipWorkFunctionEV, sampleWorkFunctionEV: wkb.sampleWorkFunctionEV, widthM: wkb.widthM, areaM2: wkb.areaM2 });
+      if (again.converged && again.chiSquare <= wkb.chiSquare) wkb = again;
+      else barrierRange = previous;
+    }
+  }
   // The asymmetry is the loosest direction. A fit that ends far out (|Δφ| > 1.5 eV) or fails, and
   // every image-rounded fit (the image term loosens the asymmetry further), gets a second start
   // from the symmetric barrier; the lower χ² wins. When the two optima are statistically as good
@@ -249,26 +262,36 @@ function simmonsStartBarrier(area: AreaConstraint, widthM: number, zeroBiasCondu
 }
 
 /**
- * A lone I(V) with a free area fixes the zero-bias conductance G(0) = A·g(φ̄, d) and the curvature
- * (d/√φ̄), but not φ̄: along that valley A grows as e^{b·d·√φ̄} and χ² is nearly flat, with minima
- * the noise places anywhere from far below the bias range (areas of 1e-5 nm², a thousandth of an
- * atom) to the upper bound (areas of square metres). The range of φ̄, eV, where the area implied
- * along the valley through the start stays within PLAUSIBLE_AREA_M2, by bisection in ln φ̄ on the
- * exact zero-bias conductance g of a symmetric trapezoid (A is monotonic along the valley).
- * The width per √φ̄ and G(0) come from the start (BDR), so the range is approximate, which suits a
- * bound that spans six decades of area.
+ * A lone I(V) with a free area fixes the zero-bias conductance G(0) = A·g(φ1, φ2, d) and the
+ * curvature (d/√φ̄), but not φ̄: along that valley A grows as e^{b·d·√φ̄} and χ² is nearly flat,
+ * with minima the noise places anywhere from far below the bias range (areas of 1e-5 nm², a
+ * thousandth of an atom) to the upper bound (areas of square metres). The range of φ̄, eV, where
+ * the area implied along the valley through `estimate` (its d/√φ̄ and Δφ/φ̄ held, G(0) from the
+ * data) stays within PLAUSIBLE_AREA_M2, by bisection in ln φ̄ on the exact zero-bias conductance g
+ * (A is monotonic along the valley). Null when not to impose one: no usable estimate, the whole
+ * valley outside the plausible areas (the data disagree with the prior), or, with φ1 fixed, a
+ * range that leaves no room for φ2 > 0.
  */
-function plausibleBarrierRange(input: SpectrumInput, start: WkbStart, zeroBiasConductanceS: number): [number, number] {
-  const startMean = (start.tipWorkFunctionEV + start.sampleWorkFunctionEV) / 2;
-  const widthPerRoot = start.widthM / Math.sqrt(startMean);
+function plausibleBarrierRange(
+  input: SpectrumInput,
+  estimate: { meanBarrierEV: number; asymmetryEV: number; widthM: number },
+  zeroBiasConductanceS: number,
+): [number, number] | null {
+  const widthPerRoot = estimate.widthM / Math.sqrt(estimate.meanBarrierEV);
+  const relativeAsymmetry = Math.max(-1.8, Math.min(1.8, (Number.isFinite(estimate.asymmetryEV) ? estimate.asymmetryEV : 0) / estimate.meanBarrierEV));
+  if (!(widthPerRoot > 0) || !(zeroBiasConductanceS > 0)) return null;
   const logArea = (mean: number) => {
-    const junction = { tipWorkFunctionEV: mean, sampleWorkFunctionEV: mean, gapM: widthPerRoot * Math.sqrt(mean), fermiEnergyEV: input.fermiEnergyEV };
+    const junction = {
+      tipWorkFunctionEV: mean * (1 - relativeAsymmetry / 2),
+      sampleWorkFunctionEV: mean * (1 + relativeAsymmetry / 2),
+      gapM: widthPerRoot * Math.sqrt(mean),
+      fermiEnergyEV: input.fermiEnergyEV,
+    };
     const conductancePerArea = trapezoidCurrentDensity(junction, ZERO_BIAS_PROBE_V, input.temperatureK) / ZERO_BIAS_PROBE_V;
     return Math.log(zeroBiasConductanceS / conductancePerArea);
   };
   const lowLog = Math.log(MIN_BARRIER_EV);
   const highLog = Math.log(MAX_BARRIER_EV);
-  if (!(widthPerRoot > 0) || !(zeroBiasConductanceS > 0)) return [MIN_BARRIER_EV, MAX_BARRIER_EV];
   const crossing = (target: number): number => {
     if (logArea(Math.exp(lowLog)) >= target) return lowLog;
     if (logArea(Math.exp(highLog)) <= target) return highLog;
@@ -283,8 +306,15 @@ function plausibleBarrierRange(input: SpectrumInput, start: WkbStart, zeroBiasCo
   };
   const low = Math.exp(crossing(Math.log(PLAUSIBLE_AREA_M2[0])));
   const high = Math.exp(crossing(Math.log(PLAUSIBLE_AREA_M2[1])));
-  // The whole valley outside the plausible areas: the data disagree with the prior; do not impose it.
-  return high > low * 1.01 ? [low, high] : [MIN_BARRIER_EV, MAX_BARRIER_EV];
+  if (!(high > low * 1.01)) return null;
+  const tip = input.tipWorkFunctionEV;
+  if (tip !== undefined && !(high > tip / 2 + 0.05)) return null;
+  return [low, high];
+}
+
+/** The mean barrier, asymmetry and width of a fit start. */
+function estimateOf(start: WkbStart): { meanBarrierEV: number; asymmetryEV: number; widthM: number } {
+  return { meanBarrierEV: (start.tipWorkFunctionEV + start.sampleWorkFunctionEV) / 2, asymmetryEV: start.sampleWorkFunctionEV - start.tipWorkFunctionEV, widthM: start.widthM };
 }
 
 function clampBarrier(value: number): number {
@@ -769,7 +799,7 @@ function fitBarrierModel(
     const startMean = Math.max(mean, 0.6 * fixedTip);
     startQ = [Math.log(startMean), Math.log(width / Math.sqrt(startMean)), Math.log(zeroBiasConductanceS)];
     lower = [Math.max(logMean[0], Math.log(fixedTip / 2 + MIN_BARRIER_EV)), Math.log(MIN_WIDTH_M / Math.sqrt(MAX_BARRIER_EV)), -80];
-    upper = [Math.max(logMean[1], Math.log(fixedTip / 2 + 2 * MIN_BARRIER_EV)), Math.log(MAX_WIDTH_M / Math.sqrt(MIN_BARRIER_EV)), 0];
+    upper = [logMean[1], Math.log(MAX_WIDTH_M / Math.sqrt(MIN_BARRIER_EV)), 0];
   } else {
     startQ = [
       ...(input.tipWorkFunctionEV === undefined ? [Math.log(clampBarrier(start.tipWorkFunctionEV))] : []),
@@ -786,7 +816,7 @@ function fitBarrierModel(
   // test can certify its error bar (profile checks at ±3σ pass on some spectra whose truth lies
   // 16σ away). It is reported, but marked. The image term (area tied) gets the profile check.
   const profileNote = freeArea
-    ? `${FREE_AREA_NOTE}${barrierRange ? ` (φ̄ was kept within ${barrierRange[0].toFixed(2)}–${barrierRange[1].toFixed(2)} eV, where the implied area lies between 0.01 and 1e4 nm²)` : ''}`
+    ? `${FREE_AREA_NOTE}${barrierRange ? ` (φ̄ was kept within ${barrierRange[0].toFixed(2)}–${barrierRange[1].toFixed(2)} eV, where the area implied along the fitted valley is roughly 0.01–1e4 nm²)` : ''}`
     : input.imagePotential && result.converged && result.uncertaintiesOk
       ? profileCheck(problem, result, lower, upper)
       : '';

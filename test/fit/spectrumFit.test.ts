@@ -144,6 +144,34 @@ describe('fitSpectrum(WKB, free area)', () => {
     expect(fit(simulateSpectrum({ seed: 2001 }), tipRadius).plausibleMeanBarrierRangeEV).toBeNull();
   });
 
+  it('fitSpectrum(free area, ±0.3 V or the tip work function fixed) keeps the truth inside the range and φ2 away from zero', () => {
+    // Short sweeps pin d/√φ̄ loosely at the BDR start; the range follows the Simmons and WKB valleys.
+    for (let seed = 1; seed <= 6; seed++) {
+      const spectrum = simulateSpectrum({ maxBiasV: 0.3, seed: 3000 + seed });
+      const range = fit(spectrum, { mode: 'free' }).plausibleMeanBarrierRangeEV as [number, number];
+      expect(range[0], `seed ${seed}`).toBeLessThan(4.3);
+      expect(range[1], `seed ${seed}`).toBeGreaterThan(4.3);
+      const fixedTip = fitSpectrum({ ...spectrum, temperatureK: 300, fermiEnergyEV: FERMI_ENERGY_EV, area: { mode: 'free' }, tipWorkFunctionEV: 4 }).wkb;
+      expect(fixedTip.converged, `seed ${seed}`).toBe(true);
+      expect(fixedTip.sampleWorkFunctionEV, `seed ${seed}`).toBeGreaterThan(1);
+    }
+  });
+
+  it('fitSpectrum(lastModel) stops the chain: Simmons or BDR is best, later models are not run and not ranked', () => {
+    const spectrum = simulateSpectrum({ seed: 4001 });
+    const simmonsOnly = fitSpectrum({ ...spectrum, temperatureK: 300, fermiEnergyEV: FERMI_ENERGY_EV, area: tipRadius, lastModel: 'simmons' });
+    expect(simmonsOnly.best.model).toBe('simmons');
+    expect(simmonsOnly.wkb.status).toBe('not-run');
+    expect(simmonsOnly.comparison.map((c) => c.model).sort()).toEqual(['bdr', 'simmons']);
+    const full = fit(spectrum, tipRadius);
+    // the Simmons step is the same whether or not WKB follows
+    expect(simmonsOnly.simmons.chiSquare).toBe(full.simmons.chiSquare);
+    const bdrOnly = fitSpectrum({ ...spectrum, temperatureK: 300, fermiEnergyEV: FERMI_ENERGY_EV, area: tipRadius, lastModel: 'bdr' });
+    expect(bdrOnly.best.model).toBe('bdr');
+    expect(bdrOnly.simmons.status).toBe('not-run');
+    expect(bdrOnly.comparison.map((c) => c.model)).toEqual(['bdr']);
+  });
+
   it('fitSpectrum(noise-free WKB spectrum, free area) still finds the exact barrier', () => {
     const spectrum = simulateSpectrum({});
     const wkb = fit(spectrum, { mode: 'free' }).wkb;
