@@ -5,7 +5,7 @@ import {
   prefactorCorrectedBarrierEV,
 } from '../physics/index.ts';
 import { MAD_TO_SIGMA, selectMedianOfMagnitudes } from './selectMedian.ts';
-import type { LineFit } from './weightedLine.ts';
+import { lineFitFromSums, type LineFit } from './weightedLine.ts';
 
 /**
  * Fit of an approach curve I(z): ln|I| is linear in z, I = I0·e^{slope·z} (slope < 0, z grows as the
@@ -409,19 +409,7 @@ function lineFromSums(
   const intercept = baseY + baseSlope * meanDx + meanR - slope * meanX;
   // Σw r² = Syy − slope·Sxy about the weighted means (r measured from the base line).
   const rss = Math.max(0, syy - slopeChange * sxy);
-  const s2 = count > 2 ? rss / (count - 2) : Number.NaN;
-  const slopeVariance = s2 / sxx;
-  const interceptVariance = s2 / sumW + meanX * meanX * slopeVariance;
-  return {
-    slope,
-    intercept,
-    slopeError: Math.sqrt(slopeVariance),
-    interceptError: Math.sqrt(interceptVariance),
-    covarianceInterceptSlope: -meanX * slopeVariance,
-    meanX,
-    weightedResidualSumOfSquares: rss,
-    count,
-  };
+  return lineFitFromSums(slope, intercept, meanX, sxx, rss, sumW, count);
 }
 
 /** Unweighted line of ln I over the points not excluded with I ≥ minimumCurrent, in one pass about the first of them. */

@@ -65,6 +65,16 @@ export function weightedLine(
   const intercept = meanY - slope * meanX;
   // Σw r² = Syy − slope·Sxy about the weighted means.
   const rss = Math.max(0, syy - slope * sxy);
+  return lineFitFromSums(slope, intercept, meanX, sxx, rss, sumW, count);
+}
+
+/**
+ * The LineFit of a weighted line known by its slope, intercept and sums: x̄ the weighted mean of
+ * x, S_xx = Σw(x − x̄)², Σw r² and Σw over `count` points. Errors as in weightedLine:
+ * s² = Σw r²/(n − 2), var(slope) = s²/S_xx, var(intercept) = s²/Σw + x̄²·var(slope).
+ * @example lineFitFromSums(2, 1, 1, 2, 0, 3, 3).slopeError // 0
+ */
+export function lineFitFromSums(slope: number, intercept: number, meanX: number, sxx: number, rss: number, sumW: number, count: number): LineFit {
   const s2 = count > 2 ? rss / (count - 2) : Number.NaN;
   const slopeVariance = s2 / sxx;
   const interceptVariance = s2 / sumW + meanX * meanX * slopeVariance;
