@@ -108,6 +108,7 @@ const MIN_BARRIER_EV = 0.01;
 const MAX_BARRIER_EV = 15;
 const MIN_WIDTH_M = 2e-11;
 const MAX_WIDTH_M = 1e-8;
+/** Typical clean-metal barrier, eV, used only to start the fits (common practice, no source). */
 const START_MEAN_BARRIER_EV = 4;
 const MULTI_START_ASYMMETRY_EV = 1.5;
 const FREE_AREA_NOTE =
