@@ -7,7 +7,8 @@ import { pairSites } from '../analysis/pairSites.ts';
 import { RESULT_COLUMNS } from '../io/resultColumns.ts';
 import { validateSettings, type AnalysisSettings } from '../fit/index.ts';
 import { toCsv } from '../io/exportResults.ts';
-import { importPaths } from '../io/readFileNode.ts';
+import { importPaths, listSettingsFiles } from '../io/readFileNode.ts';
+import { readSettingsText } from '../io/settingsFile.ts';
 import { defaultPoolSize, runAnalysisPool } from '../workers/nodePool.ts';
 import type { AnalysisTask } from '../workers/analysisTask.ts';
 import { parseArgs, UsageError, type FlagSpecs } from './args.ts';
@@ -15,7 +16,7 @@ import type { Command, CommandIO } from './command.ts';
 import { formatProblem } from './formatProblem.ts';
 
 const flags: FlagSpecs = {
-  settings: { kind: 'string', help: 'JSON file with the analysis settings (schema in the README)' },
+  settings: { kind: 'string', help: 'JSON file with the analysis settings (schema in the README); default: the settings file kept with the data, if any' },
   out: { kind: 'string', help: 'write results to FILE.json or FILE.csv instead of printing JSON' },
   model: { kind: 'string', help: 'auto: I(z) line for approach curves, WKB for spectra; or force one', choices: ['auto', 'iz', 'wkb', 'simmons', 'bdr'] },
   workers: { kind: 'number', help: 'worker threads (default: one per core; 1 fits in this process)', min: 1, max: 64, integer: true },
@@ -32,7 +33,8 @@ export const fitCommand: Command = {
   async run(argv, io) {
     const { flags: f, positionals } = parseArgs('fit', argv, flags);
     if (positionals.length === 0) throw new UsageError('burrow fit: give at least one file or folder');
-    const settings = readSettings(f.settings as string | undefined, io);
+    const { settings, source } = await resolveSettings(f.settings as string | undefined, positionals, io);
+    if (source !== null && f.settings === undefined) io.stderr(`burrow fit: settings from ${source} (kept with the data; --settings FILE chooses another)\n`);
     if (typeof f.model === 'string') settings.model = f.model as AnalysisSettings['model'];
     const out = f.out as string | undefined;
     if (out !== undefined && !/\.(json|csv)$/i.test(out)) throw new UsageError(`burrow fit: --out must end in .json or .csv, got '${out}'`);
@@ -89,36 +91,35 @@ function failedResult(task: AnalysisTask, error: Error): CurveResult {
   return result.status === 'ok' ? result : { ...result, message: `${result.message} (worker: ${error.message})` };
 }
 
-/** Read and validate a settings file; any problem is a UsageError naming the file, field, range and value. */
-export function readSettings(path: string | undefined, io: CommandIO): AnalysisSettings {
+/** Read and validate a settings file; any problem is a UsageError naming the file, line, column, field, range and value. */
+export function readSettings(path: string | undefined, io: CommandIO, what = '--settings '): AnalysisSettings {
   if (path === undefined) return validateSettings({}).settings;
   let text: string;
   try {
     text = readFileSync(resolve(io.cwd, path), 'utf8');
   } catch (error) {
-    throw new UsageError(`burrow fit: cannot read --settings ${path} (${(error as NodeJS.ErrnoException).code ?? (error as Error).message})`);
+    throw new UsageError(`burrow fit: cannot read ${what}${path} (${(error as NodeJS.ErrnoException).code ?? (error as Error).message})`);
   }
-  let raw: unknown;
-  try {
-    raw = JSON.parse(text);
-  } catch (error) {
-    const message = (error as Error).message;
-    const position = Number(/position (\d+)/.exec(message)?.[1] ?? Number.NaN);
-    const where = Number.isFinite(position) ? lineColumn(text, position) : { line: 1, column: 1 };
-    throw new UsageError(`${path}:${where.line}:${where.column}: settings file is not valid JSON (${message})`);
-  }
-  const { settings, problems } = validateSettings(raw);
-  if (problems.length) {
-    const lines = problems.map((p) => `${path}:${lineColumn(text, Math.max(0, text.indexOf(`"${p.field}"`))).line}: ${p.message}`);
-    throw new UsageError(lines.join('\n'));
-  }
-  return settings;
+  const read = readSettingsText(text, path);
+  if (!read.ok) throw new UsageError(read.message);
+  return read.settings;
 }
 
-function lineColumn(text: string, offset: number): { line: number; column: number } {
-  const before = text.slice(0, offset);
-  const line = before.split('\n').length;
-  return { line, column: offset - before.lastIndexOf('\n') };
+/**
+ * The settings of a run of `fit`: the --settings file when given, else the settings file kept with
+ * the data (a settings file among the paths or in their folders, see isSettingsFileName; several
+ * are fine when they agree), else the defaults. `source` names the file read, null for defaults.
+ */
+export async function resolveSettings(flag: string | undefined, paths: readonly string[], io: CommandIO): Promise<{ settings: AnalysisSettings; source: string | null }> {
+  if (flag !== undefined) return { settings: readSettings(flag, io), source: flag };
+  const found = await listSettingsFiles(paths, io.cwd);
+  if (found.length === 0) return { settings: readSettings(undefined, io), source: null };
+  const read = found.map((path) => readSettings(path, io, 'settings file '));
+  const first = JSON.stringify(read[0]);
+  if (read.some((settings) => JSON.stringify(settings) !== first)) {
+    throw new UsageError(`burrow fit: the settings files kept with the data disagree (${found.join(', ')}); choose one with --settings FILE`);
+  }
+  return { settings: read[0], source: found[0] };
 }
 
 /** A progress bar on stderr when it is a terminal; silent otherwise. */

@@ -26,7 +26,7 @@ import { importPaths } from '../io/readFileNode.ts';
 import { writeReport } from '../io/reportHtml.ts';
 import { parseArgs, UsageError, type FlagSpecs } from './args.ts';
 import type { Command, CommandIO } from './command.ts';
-import { fitCommand, readSettings } from './fit.ts';
+import { fitCommand, resolveSettings } from './fit.ts';
 
 const flags: FlagSpecs = {
   settings: { kind: 'string', help: 'analysis settings JSON, when data files are fitted for the report' },
@@ -133,7 +133,7 @@ async function loadByFitting(paths: readonly string[], settingsFlag: string | un
     throw error;
   }
   const results = JSON.parse(printed) as CurveResult[];
-  const settings = readSettings(settingsFlag, io);
+  const { settings } = await resolveSettings(settingsFlag, paths, io);
   const files = await importPaths(paths, { cwd: io.cwd });
   const source = `${paths.join(', ')} (fitted for this report)`;
   return { settings, results, metadata: metadataTableFromCurves(files.flatMap((file) => file.curves)), source, badInput: code !== 0 };

@@ -49,3 +49,6 @@ export { delimiterName } from './splitCells.ts';
 export { writeReport } from './reportHtml.ts';
 export { stripBoxPlotSvg, driftPlotSvg, gridMapSvg, REPORT_PLOT_COLOURS } from './reportSvg.ts';
 export { escapeHtml } from './reportFormat.ts';
+
+// Settings files kept with the data (the CLI and the dashboard read them alike)
+export { isSettingsFileName, readSettingsText, type SettingsFileRead } from './settingsFile.ts';

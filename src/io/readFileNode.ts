@@ -7,6 +7,7 @@ import { readdir, stat } from 'node:fs/promises';
 import { join, resolve } from 'node:path';
 import { failedImport } from './importFiles.ts';
 import { importChunks } from './importText.ts';
+import { isSettingsFileName } from './settingsFile.ts';
 import type { ImportedFile, ImportOptions, MappingAnswer } from './types.ts';
 
 /** File name endings picked up when a folder is given (files named explicitly are always read). */
@@ -15,12 +16,26 @@ export const DATA_FILE_EXTENSIONS: readonly string[] = ['.csv', '.tsv', '.txt', 
 const READ_CHUNK_BYTES = 1024 * 1024;
 
 /**
- * Expand paths into data files: files as given, folders recursively (hidden entries skipped,
- * only DATA_FILE_EXTENSIONS), each folder's entries sorted by name so the order is reproducible.
- * Paths that do not exist are kept, so that reading them reports the error.
+ * Expand paths into data files: files as given (except settings files, see isSettingsFileName),
+ * folders recursively (hidden entries skipped, only DATA_FILE_EXTENSIONS), each folder's entries
+ * sorted by name so the order is reproducible. Paths that do not exist are kept, so that reading
+ * them reports the error.
  * @example await listDataFiles(['runs/'], process.cwd()) // ['runs/a.csv', 'runs/day2/b.csv']
  */
-export async function listDataFiles(paths: readonly string[], cwd: string): Promise<string[]> {
+export function listDataFiles(paths: readonly string[], cwd: string): Promise<string[]> {
+  return listFiles(paths, cwd, (name) => DATA_FILE_EXTENSIONS.some((ext) => name.toLowerCase().endsWith(ext)), (path) => !isSettingsFileName(path));
+}
+
+/**
+ * The settings files among the paths: those named as files, and those inside the folders (walked
+ * as listDataFiles walks them).
+ * @example await listSettingsFiles(['sample-data'], process.cwd()) // ['sample-data/settings.json']
+ */
+export function listSettingsFiles(paths: readonly string[], cwd: string): Promise<string[]> {
+  return listFiles(paths, cwd, isSettingsFileName, isSettingsFileName);
+}
+
+async function listFiles(paths: readonly string[], cwd: string, inFolder: (name: string) => boolean, named: (path: string) => boolean): Promise<string[]> {
   const found: string[] = [];
   const walk = async (shown: string): Promise<void> => {
     const entries = await readdir(resolve(cwd, shown), { withFileTypes: true });
@@ -29,7 +44,7 @@ export async function listDataFiles(paths: readonly string[], cwd: string): Prom
       if (entry.name.startsWith('.')) continue;
       const child = join(shown, entry.name);
       if (entry.isDirectory()) await walk(child);
-      else if (entry.isFile() && DATA_FILE_EXTENSIONS.some((ext) => entry.name.toLowerCase().endsWith(ext))) found.push(child);
+      else if (entry.isFile() && inFolder(entry.name)) found.push(child);
     }
   };
   for (const path of paths) {
@@ -40,7 +55,7 @@ export async function listDataFiles(paths: readonly string[], cwd: string): Prom
       isDirectory = false;
     }
     if (isDirectory) await walk(path);
-    else found.push(path);
+    else if (named(path)) found.push(path);
   }
   return found;
 }

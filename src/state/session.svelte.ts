@@ -6,7 +6,7 @@
  */
 import { finishBatch, runOf, type CurveResult } from '../analysis/index.ts';
 import { DEFAULT_SETTINGS, settingsForRun, type AnalysisSettings } from '../fit/index.ts';
-import { failedImport, MappingMemory, type Curve, type ImportedFile, type MappingAnswer, type MappingMemoryJSON } from '../io/index.ts';
+import { failedImport, MappingMemory, readSettingsText, type Curve, type ImportedFile, type MappingAnswer, type MappingMemoryJSON } from '../io/index.ts';
 import { CancelledError, runPool, type ReplyMessage, type WorkerPort } from '../workers/pool.ts';
 import type { BrowserTask, BrowserTaskResult } from '../workers/browserTasks.ts';
 import { browserRows, curveLabel, neighbourCurve, runsOf, type FileColumns } from './curveBrowser.ts';
@@ -466,6 +466,33 @@ export class Session {
       this.scheduleRefit();
     }
     return null;
+  }
+
+  /**
+   * Settings files that came with the data (a dropped folder's settings.json): read and checked;
+   * when they are valid and agree they replace the session's settings, else nothing changes and
+   * the notice names the file, line and column. Returns whether the settings were applied.
+   */
+  applySettingsFiles(inputs: readonly FileInput[]): boolean {
+    if (inputs.length === 0) return false;
+    const settings: AnalysisSettings[] = [];
+    for (const input of inputs) {
+      const read = readSettingsText(input.text ?? new TextDecoder().decode(input.bytes ?? new Uint8Array(0)), input.fileName);
+      if (!read.ok) {
+        this.notify('error', `Settings not applied: ${read.message}`);
+        return false;
+      }
+      settings.push(read.settings);
+    }
+    const first = JSON.stringify(settings[0]);
+    const names = inputs.map((input) => input.fileName).join(', ');
+    if (settings.some((s) => JSON.stringify(s) !== first)) {
+      this.notify('error', `Settings not applied: the settings files ${names} disagree; load the one to use from Geometry & settings.`);
+      return false;
+    }
+    this.replaceSettings(settings[0]);
+    this.notify('info', `Settings from ${names} applied.`);
+    return true;
   }
 
   /** Replace all settings at once (already validated), and refit what changed. */

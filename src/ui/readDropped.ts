@@ -1,26 +1,32 @@
 /**
  * Files the user picked or dropped, read into bytes: plain file lists (file inputs, also with a
  * folder chosen through webkitdirectory) and drag-and-drop, where folders are walked recursively.
- * Inside folders only text-export extensions are taken, so a folder of images and notes does not
- * fill the problem list.
+ * Inside folders only text exports and settings files (settings.json kept with the data) are
+ * taken, so a folder of images and notes does not fill the problem list.
  */
+import { isSettingsFileName } from '../io/index.ts';
 import type { FileInput } from '../state/session.svelte.ts';
 
 /** Extensions read from inside folders. */
 const TEXT_EXPORTS = /\.(csv|tsv|txt|dat|asc|xy)$/i;
+
+/** Is this entry of a folder read: a text export or a settings file, not hidden. */
+function takenFromFolder(name: string): boolean {
+  return !name.startsWith('.') && (TEXT_EXPORTS.test(name) || isSettingsFileName(name));
+}
 
 async function toInput(file: File, name = file.name): Promise<FileInput> {
   return { fileName: name, bytes: new Uint8Array(await file.arrayBuffer()) };
 }
 
 /**
- * Inputs from a file input's list. With a folder (webkitRelativePath set) only text exports are
- * kept; a single picked file is always kept.
+ * Inputs from a file input's list. With a folder (webkitRelativePath set) only text exports and
+ * settings files are kept; a single picked file is always kept.
  */
 export async function filesFromList(list: FileList | readonly File[]): Promise<FileInput[]> {
   const files = [...list];
   const fromFolder = files.some((f) => f.webkitRelativePath);
-  const kept = fromFolder ? files.filter((f) => TEXT_EXPORTS.test(f.name) && !f.name.startsWith('.')) : files;
+  const kept = fromFolder ? files.filter((f) => takenFromFolder(f.name)) : files;
   return Promise.all(kept.map((f) => toInput(f)));
 }
 
@@ -45,7 +51,7 @@ function readAll(reader: FileSystemDirectoryReader): Promise<FileSystemEntry[]> 
 
 async function walk(entry: FileSystemEntry, inFolder: boolean, out: File[]): Promise<void> {
   if (entry.isFile) {
-    if (!inFolder || (TEXT_EXPORTS.test(entry.name) && !entry.name.startsWith('.'))) out.push(await entryFile(entry as FileSystemFileEntry));
+    if (!inFolder || takenFromFolder(entry.name)) out.push(await entryFile(entry as FileSystemFileEntry));
   } else if (entry.isDirectory) {
     for (const child of await readAll((entry as FileSystemDirectoryEntry).createReader())) await walk(child, true, out);
   }

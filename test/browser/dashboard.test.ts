@@ -5,7 +5,9 @@
  * are exported, and a reload brings everything back from IndexedDB. Every request the page makes
  * is recorded; any host but the app's own fails the last test, as does any console error.
  */
-import { readFileSync } from 'node:fs';
+import { copyFileSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import Papa from 'papaparse';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -253,6 +255,25 @@ describe('dashboard in Chromium', () => {
     expect(await page.getByTestId('progress-message').textContent()).not.toMatch(/Fitted/);
     await page.getByTestId('tab-settings').click();
     expect(await page.locator('input[data-field="tipWorkFunctionEV"][data-run=""]').inputValue()).toBe('4');
+  });
+
+  it('a folder with a settings.json kept beside its exports is fitted with those settings', async () => {
+    const folder = mkdtempSync(join(tmpdir(), 'burrow-folder-'));
+    const settings = JSON.parse(readFileSync(new URL('../../sample-data/settings.json', import.meta.url), 'utf8'));
+    writeFileSync(join(folder, 'settings.json'), JSON.stringify({ ...settings, temperatureK: 77 }, null, 1));
+    copyFileSync(new URL('../../sample-data/spectra-A-gold.tsv', import.meta.url), join(folder, 'spectra-A-gold.tsv'));
+    writeFileSync(join(folder, 'notes.md'), '# not data\n');
+    await page.getByRole('button', { name: 'New session' }).click();
+    await page.getByTestId('folder-input').setInputFiles(folder);
+    await expect.poll(() => page.getByTestId('notice-text').allTextContents()).toContain('Settings from settings.json applied.');
+    await waitAllFitted(page, 2);
+    // With the tip radius from the file the area is tied, so no spectrum is left degenerate.
+    const fitted = await counts();
+    expect(fitted.curves).toBe(fitted.fitted);
+    expect(fitted.flagged).toBe(0);
+    await page.getByTestId('tab-settings').click();
+    expect(await page.locator('input[data-field="temperatureK"][data-run=""]').inputValue()).toBe('77');
+    expect(await page.locator('input[data-field="tipRadiusNm"][data-run="A-gold"]').inputValue()).toBe('12');
   });
 
   it('the page made no request outside its own origin and printed no console error', () => {

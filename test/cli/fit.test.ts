@@ -1,4 +1,4 @@
-import { mkdtempSync, readFileSync, writeFileSync, copyFileSync } from 'node:fs';
+import { copyFileSync, mkdirSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -63,6 +63,16 @@ describe('burrow fit on the demo scenario', () => {
     }
   });
 
+  it('without --settings, the settings file kept with the data is used and said so', async () => {
+    const out = join(mkdtempSync(join(tmpdir(), 'burrow-fit-')), 'results.json');
+    const io = capture();
+    expect(await runCli(['fit', 'sample-data', '--out', out], io), io.err).toBe(0);
+    expect(io.err).toContain(`burrow fit: settings from ${join('sample-data', 'settings.json')} (kept with the data; --settings FILE chooses another)`);
+    const kept = JSON.parse(readFileSync(out, 'utf8'));
+    expect(kept.settings.runOverrides['B-gold'].tipRadiusNm).toBe(25);
+    expect(kept.results).toEqual(await fitDemo());
+  });
+
   it('fits the approach curve and the spectrum of site S7 jointly, within 3σ of the truth', async () => {
     const results = await fitDemo();
     const spectrum = results.find((r) => base(r.file) === 'site-S7-A-gold-spectrum.csv') as CurveResult;
@@ -97,7 +107,7 @@ describe('burrow fit with bad input', () => {
     writeFileSync(join(dir, 'settings.json'), '{\n  "temperatureK": 300,\n  "tipRadiusNm": -5\n}\n');
     const io = capture(dir);
     expect(await runCli(['fit', join(sampleData, 'approach-A-gold.csv'), '--settings', 'settings.json'], io)).toBe(2);
-    expect(io.err).toContain('settings.json:3: tipRadiusNm must be a number > 0 and <= 100000 nm or null, got -5');
+    expect(io.err).toContain('settings.json:3:3: tipRadiusNm must be a number > 0 and <= 100000 nm or null, got -5');
   });
 
   it('settings that are not JSON give the line and column, exit 2', async () => {
@@ -106,6 +116,35 @@ describe('burrow fit with bad input', () => {
     const io = capture(dir);
     expect(await runCli(['fit', join(sampleData, 'approach-A-gold.csv'), '--settings', 'settings.json'], io)).toBe(2);
     expect(io.err).toMatch(/^settings\.json:3:\d+: settings file is not valid JSON/);
+  });
+
+  it('settings files kept with the data: --settings wins; files that disagree or are bad stop with a located message, exit 2', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'burrow-kept-'));
+    for (const run of ['tip-A', 'tip-B']) {
+      mkdirSync(join(dir, run));
+      copyFileSync(join(sampleData, 'approach-A-gold.csv'), join(dir, run, 'approach.csv'));
+    }
+    writeFileSync(join(dir, 'tip-A', 'settings.json'), '{ "temperatureK": 77 }\n');
+    writeFileSync(join(dir, 'tip-B', 'settings.json'), '{ "temperatureK": 4.2 }\n');
+    writeFileSync(join(dir, 'chosen.json'), '{ "temperatureK": 300 }\n');
+
+    let io = capture(dir);
+    expect(await runCli(['fit', 'tip-A', 'tip-B'], io)).toBe(2);
+    expect(io.err).toContain(`the settings files kept with the data disagree (${join('tip-A', 'settings.json')}, ${join('tip-B', 'settings.json')}); choose one with --settings FILE`);
+
+    io = capture(dir);
+    expect(await runCli(['fit', 'tip-A', 'tip-B', '--settings', 'chosen.json', '--out', 'r.json'], io), io.err).toBe(0);
+    expect(io.err).not.toContain('settings from');
+    expect(JSON.parse(readFileSync(join(dir, 'r.json'), 'utf8')).settings.temperatureK).toBe(300);
+
+    io = capture(dir);
+    expect(await runCli(['fit', 'tip-A', '--out', 'a.json'], io), io.err).toBe(0);
+    expect(JSON.parse(readFileSync(join(dir, 'a.json'), 'utf8')).settings.temperatureK).toBe(77);
+
+    writeFileSync(join(dir, 'tip-B', 'settings.json'), '{\n  "runOverrides": {\n    "A-gold": { "tipRadiusNm": -1 }\n  }\n}\n');
+    io = capture(dir);
+    expect(await runCli(['fit', 'tip-B'], io)).toBe(2);
+    expect(io.err).toContain(`${join('tip-B', 'settings.json')}:3:17: runOverrides.A-gold.tipRadiusNm must be a number > 0`);
   });
 
   it('one unreadable file in a folder does not stop the others; exit 2 with its location', async () => {

@@ -2,7 +2,7 @@ import { mkdir, mkdtemp, rm, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { importPaths, listDataFiles, readTextChunks, sniffEncoding } from '../../src/io/readFileNode.ts';
+import { importPaths, listDataFiles, listSettingsFiles, readTextChunks, sniffEncoding } from '../../src/io/readFileNode.ts';
 
 let folder = '';
 
@@ -14,6 +14,8 @@ beforeAll(async () => {
   await writeFile(join(folder, 'runs', 'b.csv'), table);
   await writeFile(join(folder, 'runs', 'a.txt'), table);
   await writeFile(join(folder, 'runs', 'notes.md'), '# not data');
+  await writeFile(join(folder, 'runs', 'settings.json'), '{}');
+  await writeFile(join(folder, 'runs', 'day2', 'tip-B-settings.json'), '{}');
   await writeFile(join(folder, 'runs', 'day2', 'c.dat'), table);
   await writeFile(join(folder, 'runs', '.hidden', 'd.csv'), table);
   // Latin-1 bytes: µ is 0xB5 and Å is 0xC5 in ISO 8859-1.
@@ -29,6 +31,12 @@ afterAll(async () => {
 describe('readFileNode', () => {
   it('listDataFiles(folder) walks sub-folders in name order, skipping hidden entries and other extensions', async () => {
     expect(await listDataFiles(['runs', 'missing.csv'], folder)).toEqual([join('runs', 'a.txt'), join('runs', 'b.csv'), join('runs', 'day2', 'c.dat'), 'missing.csv']);
+  });
+
+  it('listSettingsFiles finds the settings files kept with the data; listDataFiles leaves them out even when named', async () => {
+    expect(await listSettingsFiles(['runs', 'other.json'], folder)).toEqual([join('runs', 'day2', 'tip-B-settings.json'), join('runs', 'settings.json')]);
+    expect(await listSettingsFiles([join('runs', 'settings.json'), join('runs', 'b.csv')], folder)).toEqual([join('runs', 'settings.json')]);
+    expect(await listDataFiles([join('runs', 'settings.json'), join('runs', 'b.csv')], folder)).toEqual([join('runs', 'b.csv')]);
   });
 
   it('sniffEncoding(first bytes) recognises UTF-16 marks, valid UTF-8 and falls back to Latin-1', () => {

@@ -57,6 +57,30 @@ describe('Session', () => {
     expect(session.errorCount).toBe(2);
   });
 
+  it('Session.applySettingsFiles applies a valid settings file kept with the data and refits; a bad or disagreeing one changes nothing', async () => {
+    const session = new Session(testEnv());
+    const spectra = DEMO_FILES.filter((f) => f.fileName === 'spectra-A-gold.tsv');
+    await session.addFiles(spectra);
+    await session.settled();
+    // Without the tip radius a lone spectrum leaves the area free: barrier, width and area trade off.
+    expect(session.results.every((r) => r.flags.some((f) => f.code === 'degenerate'))).toBe(true);
+
+    const kept = readFileSync(new URL('../../sample-data/settings.json', import.meta.url), 'utf8');
+    expect(session.applySettingsFiles([{ fileName: 'settings.json', bytes: new TextEncoder().encode(kept) }])).toBe(true);
+    await session.settled();
+    expect(session.settings).toEqual(demoSettings());
+    expect(session.notices.at(-1)?.text).toBe('Settings from settings.json applied.');
+    expect(session.results.some((r) => r.flags.some((f) => f.code === 'degenerate'))).toBe(false);
+
+    const bad = '{\n  "temperatureK": -1\n}\n';
+    expect(session.applySettingsFiles([{ fileName: 'tip-B-settings.json', text: bad }])).toBe(false);
+    expect(session.notices.at(-1)?.text).toMatch(/^Settings not applied: tip-B-settings\.json:2:3: temperatureK must be a number >= 0/);
+    expect(session.applySettingsFiles([{ fileName: 'a/settings.json', text: kept }, { fileName: 'b/settings.json', text: '{}' }])).toBe(false);
+    expect(session.notices.at(-1)?.text).toMatch(/the settings files a\/settings\.json, b\/settings\.json disagree/);
+    expect(session.settings).toEqual(demoSettings());
+    expect(session.curves.length).toBe(spectra.flatMap((f) => importText(f.text, f.fileName).curves).length);
+  });
+
   it('Session.addFiles skips an identical file of the same name and renames a different one', async () => {
     const session = new Session(testEnv());
     await session.addFiles([{ fileName: 'a.csv', text: fixture('comma-single.csv') }]);
