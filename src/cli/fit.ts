@@ -8,7 +8,7 @@ import { RESULT_COLUMNS } from '../io/resultColumns.ts';
 import { validateSettings, type AnalysisSettings } from '../fit/index.ts';
 import { toCsv } from '../io/exportResults.ts';
 import { importPaths, listSettingsFiles } from '../io/readFileNode.ts';
-import { readSettingsText } from '../io/settingsFile.ts';
+import { readSettingsText, settingsAgree } from '../io/settingsFile.ts';
 import { defaultPoolSize, runAnalysisPool } from '../workers/nodePool.ts';
 import type { AnalysisTask } from '../workers/analysisTask.ts';
 import { parseArgs, UsageError, type FlagSpecs } from './args.ts';
@@ -115,8 +115,7 @@ export async function resolveSettings(flag: string | undefined, paths: readonly 
   const found = await listSettingsFiles(paths, io.cwd);
   if (found.length === 0) return { settings: readSettings(undefined, io), source: null };
   const read = found.map((path) => readSettings(path, io, 'settings file '));
-  const first = JSON.stringify(read[0]);
-  if (read.some((settings) => JSON.stringify(settings) !== first)) {
+  if (!settingsAgree(read)) {
     throw new UsageError(`burrow fit: the settings files kept with the data disagree (${found.join(', ')}); choose one with --settings FILE`);
   }
   return { settings: read[0], source: found[0] };

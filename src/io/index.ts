@@ -51,4 +51,4 @@ export { stripBoxPlotSvg, driftPlotSvg, gridMapSvg, REPORT_PLOT_COLOURS } from '
 export { escapeHtml } from './reportFormat.ts';
 
 // Settings files kept with the data (the CLI and the dashboard read them alike)
-export { isSettingsFileName, readSettingsText, type SettingsFileRead } from './settingsFile.ts';
+export { isSettingsFileName, readSettingsText, settingsAgree, type SettingsFileRead } from './settingsFile.ts';

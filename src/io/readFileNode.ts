@@ -10,7 +10,7 @@ import { importChunks } from './importText.ts';
 import { isSettingsFileName } from './settingsFile.ts';
 import type { ImportedFile, ImportOptions, MappingAnswer } from './types.ts';
 
-/** File name endings picked up when a folder is given (files named explicitly are always read). */
+/** File name endings picked up when a folder is given (files named explicitly are read whatever their ending, settings files aside). */
 export const DATA_FILE_EXTENSIONS: readonly string[] = ['.csv', '.tsv', '.txt', '.dat', '.asc', '.tab', '.prn', '.xy'];
 
 const READ_CHUNK_BYTES = 1024 * 1024;

@@ -43,6 +43,16 @@ export function readSettingsText(text: string, name: string): SettingsFileRead {
 }
 
 /**
+ * Do these settings (read from several files kept with the data) all say the same? Only then may
+ * they be applied; which one holds is otherwise the user's choice.
+ * @example settingsAgree([a, { ...a }]) // true
+ */
+export function settingsAgree(settings: readonly AnalysisSettings[]): boolean {
+  const first = JSON.stringify(settings[0]);
+  return settings.every((s) => JSON.stringify(s) === first);
+}
+
+/**
  * Where a field's key stands in the text (0 when not found): `key`, `runOverrides.RUN` or
  * `runOverrides.RUN.key`, each key looked for after the one before it (run names may hold dots).
  */

@@ -6,7 +6,7 @@
  */
 import { finishBatch, runOf, type CurveResult } from '../analysis/index.ts';
 import { DEFAULT_SETTINGS, settingsForRun, type AnalysisSettings } from '../fit/index.ts';
-import { failedImport, MappingMemory, readSettingsText, type Curve, type ImportedFile, type MappingAnswer, type MappingMemoryJSON } from '../io/index.ts';
+import { failedImport, MappingMemory, readSettingsText, settingsAgree, type Curve, type ImportedFile, type MappingAnswer, type MappingMemoryJSON } from '../io/index.ts';
 import { CancelledError, runPool, type ReplyMessage, type WorkerPort } from '../workers/pool.ts';
 import type { BrowserTask, BrowserTaskResult } from '../workers/browserTasks.ts';
 import { browserRows, curveLabel, neighbourCurve, runsOf, type FileColumns } from './curveBrowser.ts';
@@ -484,9 +484,8 @@ export class Session {
       }
       settings.push(read.settings);
     }
-    const first = JSON.stringify(settings[0]);
     const names = inputs.map((input) => input.fileName).join(', ');
-    if (settings.some((s) => JSON.stringify(s) !== first)) {
+    if (!settingsAgree(settings)) {
       this.notify('error', `Settings not applied: the settings files ${names} disagree; load the one to use from Geometry & settings.`);
       return false;
     }
